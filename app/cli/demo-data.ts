@@ -1,0 +1,89 @@
+import { readFile } from "node:fs/promises";
+import { eq } from "drizzle-orm";
+import sharp from "sharp";
+import { catalogue } from "../../content-samples/catalogue";
+import { guides as guideSamples } from "../../content-samples/guides/index";
+import { people } from "../../content-samples/people";
+import type { Db } from "~/db/client.server";
+import { guides } from "~/db/schema";
+import { upsertCatalogue, variantByKey } from "~/models/catalogue.server";
+import { draftInputSchema, fieldErrors } from "~/models/guide-input";
+import { createGuide, saveDraft } from "~/models/guides.server";
+import { uploadPhoto } from "~/models/media.server";
+import { decideReview, revisionCautions, submitRevision } from "~/models/review.server";
+import { createUser, findUserByEmail } from "~/models/users.server";
+import type { Storage } from "~/services/storage.server";
+
+/** Every demo account signs in with this password (development and demo data only). */
+export const DEMO_PASSWORD = "torqueleaf-demo";
+
+const photosDir = new URL("../../content-samples/photos/", import.meta.url);
+
+/**
+ * Loads the invented demo scenario through the same model functions the app uses: accounts,
+ * catalogue, photos through the upload pipeline, guides written, submitted, reviewed and published.
+ * Running it again changes nothing that is already there.
+ */
+export async function loadDemoData(db: Db, storage: Storage, log: (line: string) => void = () => {}) {
+  for (const person of people) {
+    if (!(await findUserByEmail(db, person.email))) {
+      await createUser(db, { ...person, password: DEMO_PASSWORD, verified: true });
+    }
+  }
+  await upsertCatalogue(db, catalogue);
+
+  const editor = await findUserByEmail(db, "editor@torqueleaf.test");
+  if (!editor) throw new Error("the demo editor account is missing");
+  const uploaded = new Map<string, number>();
+
+  for (const sample of guideSamples) {
+    if (await db.query.guides.findFirst({ where: eq(guides.slug, sample.slug) })) continue;
+    const author = await findUserByEmail(db, sample.author);
+    if (!author) throw new Error(`demo guide ${sample.slug}: unknown author ${sample.author}`);
+
+    const steps = [];
+    for (const step of sample.steps) {
+      const photos = [];
+      for (const photo of step.photos) {
+        let mediaId = uploaded.get(photo.file);
+        if (!mediaId) {
+          const jpeg = await sharp(await readFile(new URL(photo.file, photosDir)))
+            .jpeg({ quality: 90 })
+            .toBuffer();
+          mediaId = (await uploadPhoto(db, storage, author.id, jpeg, photo.file.replace(/\.svg$/, ".jpg"))).id;
+          uploaded.set(photo.file, mediaId);
+        }
+        photos.push({ mediaId, alt: photo.alt, caption: photo.caption });
+      }
+      steps.push({ ...step, photos });
+    }
+    const fitment = [];
+    for (const row of sample.fitment) {
+      const variant = await variantByKey(db, row.variant);
+      if (!variant) throw new Error(`demo guide ${sample.slug}: unknown variant ${row.variant}`);
+      fitment.push({ variantId: variant.id, status: row.status, note: row.note ?? null });
+    }
+    const created = await createGuide(db, author.id, sample, { slug: sample.slug });
+    const parsed = draftInputSchema.safeParse({
+      ...sample,
+      version: created.draft.version,
+      steps,
+      fitment,
+      parts: sample.parts.map(({ step, ...part }) => ({ ...part, stepIndex: step ?? null })),
+    });
+    if (!parsed.success) {
+      throw new Error(`demo guide ${sample.slug} is invalid: ${JSON.stringify(fieldErrors(parsed.error))}`);
+    }
+    await saveDraft(db, created.id, author.id, parsed.data);
+    if (sample.state !== "draft") {
+      const { revisionId } = await submitRevision(db, created.id, author.id, sample.changeSummary);
+      if (sample.state === "published") {
+        for (const caution of await revisionCautions(db, revisionId)) {
+          await decideReview(db, revisionId, editor.id, { intent: "sign-off", cautionId: caution.id });
+        }
+        await decideReview(db, revisionId, editor.id, { intent: "approve" });
+      }
+    }
+    log(`demo guide ${sample.slug} (${sample.state})`);
+  }
+}

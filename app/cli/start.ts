@@ -1,0 +1,26 @@
+import compression from "compression";
+import express from "express";
+import { createRequestHandler } from "@react-router/express";
+import { boot } from "./boot";
+
+/** Production-style server: the built app behind Express, after boot (fakes, migrations, demo data). */
+const { settings } = await boot();
+
+const app = express();
+app.disable("x-powered-by");
+if (settings.TRUST_PROXY) app.set("trust proxy", 1);
+app.use(compression());
+app.use("/assets", express.static("build/client/assets", { immutable: true, maxAge: "1y" }));
+app.use(express.static("build/client", { maxAge: "1h" }));
+const buildPath = new URL("../../build/server/index.js", import.meta.url).href;
+app.use(createRequestHandler({ build: () => import(buildPath) }));
+
+const server = app.listen(settings.PORT, () => {
+  console.log(`Torqueleaf is serving ${settings.APP_ORIGIN} (port ${settings.PORT})`);
+});
+for (const signal of ["SIGINT", "SIGTERM"] as const) {
+  process.on(signal, () => {
+    server.close();
+    process.exit(0);
+  });
+}

@@ -1,0 +1,118 @@
+import type { CircuitResult } from "~/engine/circuit";
+import type { TorqueEstimate, TorqueValues } from "~/engine/torque";
+import { round } from "~/utils/format";
+import { CircuitFigure, CircuitResults } from "./circuit-results";
+
+type AnyCallout = { kind: string; [key: string]: unknown };
+type Evaluated = AnyCallout & { result: unknown };
+
+const SIGNAL_STYLE: Record<string, { bar: string; panel: string; icon: string }> = {
+  DANGER: { bar: "bg-z-danger text-white", panel: "border-z-danger", icon: "▲" },
+  WARNING: { bar: "bg-z-warning text-white", panel: "border-z-warning", icon: "▲" },
+  CAUTION: { bar: "bg-z-caution text-ink", panel: "border-z-caution", icon: "▲" },
+  NOTICE: { bar: "bg-z-notice text-white", panel: "border-z-notice", icon: "■" },
+};
+
+/** A caution panel after ANSI Z535.6: the signal word in its colour band, then the message. */
+export function CautionCallout({ signalWord, text }: { signalWord: string; text: string }) {
+  const style = SIGNAL_STYLE[signalWord] ?? SIGNAL_STYLE.NOTICE;
+  return (
+    <div role="note" aria-label={signalWord} className={`overflow-hidden rounded-lg border-2 bg-white ${style.panel}`}>
+      <div className={`flex items-center gap-2 px-4 py-1.5 text-sm font-bold tracking-[0.2em] ${style.bar}`}>
+        {signalWord !== "NOTICE" ? <span aria-hidden="true">{style.icon}</span> : null}
+        {signalWord}
+      </div>
+      <p className="px-4 py-3 text-[0.95rem] leading-relaxed">{text}</p>
+    </div>
+  );
+}
+
+export function TorqueCallout({
+  callout,
+  result,
+}: {
+  callout: AnyCallout;
+  result: { values: TorqueValues | null; estimate: TorqueEstimate | null };
+}) {
+  const values = result.values ?? result.estimate;
+  const details = [callout.size, callout.propertyClass ? `class ${callout.propertyClass}` : null].filter(Boolean).join(" · ");
+  return (
+    <div className="rounded-lg border border-brass-100 bg-brass-50 px-4 py-3">
+      <div className="flex flex-wrap items-baseline justify-between gap-2">
+        <p className="font-medium">
+          <span className="mr-2 text-xs font-bold uppercase tracking-widest text-brass-700">Torque</span>
+          {String(callout.fastener)}
+          {details ? <span className="ml-2 text-sm text-ink-soft">{details}</span> : null}
+        </p>
+        {result.estimate ? (
+          <span className="rounded bg-white px-2 py-0.5 text-xs font-semibold uppercase tracking-wider text-z-warning">
+            Estimate
+          </span>
+        ) : null}
+      </div>
+      {values ? (
+        <p className="mt-1 font-mono text-lg tabular-nums text-ink" data-testid="torque-values">
+          <strong className="text-2xl">{round(values.nm, 1)} N·m</strong>
+          <span className="mx-2 text-ink-soft">=</span>
+          {round(values.lbfFt, 1)} lbf·ft
+          <span className="mx-2 text-ink-soft">=</span>
+          {round(values.lbfIn, 0)} lbf·in
+        </p>
+      ) : null}
+      {callout.threadlocker ? <p className="mt-1 text-sm">Threadlocker: {String(callout.threadlocker)}</p> : null}
+      {result.estimate ? (
+        <p className="mt-1 text-sm text-ink-soft">
+          {result.estimate.formula}. {result.estimate.caution}
+        </p>
+      ) : (
+        <p className="mt-1 text-xs text-ink-soft">Conversions: {result.values?.source.title}.</p>
+      )}
+    </div>
+  );
+}
+
+export function TipCallout({ text }: { text: string }) {
+  return (
+    <div className="rounded-lg border border-spruce-100 bg-spruce-50 px-4 py-3">
+      <p>
+        <span className="mr-2 text-xs font-bold uppercase tracking-widest text-spruce-700">Tip</span>
+        {text}
+      </p>
+    </div>
+  );
+}
+
+export function CalloutView({ callout, id }: { callout: Evaluated; id: string }) {
+  switch (callout.kind) {
+    case "caution":
+      return <CautionCallout signalWord={String(callout.signalWord)} text={String(callout.text)} />;
+    case "tip":
+      return <TipCallout text={String(callout.text)} />;
+    case "torque":
+      return (
+        <TorqueCallout
+          callout={callout}
+          result={callout.result as { values: TorqueValues | null; estimate: TorqueEstimate | null }}
+        />
+      );
+    case "circuit": {
+      const result = (callout.result as { result: CircuitResult }).result;
+      return (
+        <div className="rounded-lg border border-spruce-200 bg-white p-4">
+          <p className="font-medium">
+            <span className="mr-2 text-xs font-bold uppercase tracking-widest text-spruce-700">Circuit</span>
+            {callout.label ? String(callout.label) : "Circuit check"}
+          </p>
+          <CircuitResults result={result} relay={callout.relay as boolean | undefined} />
+          <CircuitFigure
+            input={{ ...result.inputs, relay: callout.relay as boolean | undefined, label: callout.label as string | undefined }}
+            result={result}
+            id={id}
+          />
+        </div>
+      );
+    }
+    default:
+      return null;
+  }
+}

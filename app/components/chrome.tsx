@@ -1,0 +1,100 @@
+import { Link, NavLink } from "react-router";
+import { useRootData } from "~/root";
+
+export function LogoMark({ className = "h-9 w-9" }: { className?: string }) {
+  return <img src="/logo.svg" alt="" className={className} width={36} height={36} />;
+}
+
+const navClass = ({ isActive }: { isActive: boolean }) =>
+  `rounded-md px-3 py-2 text-sm font-medium ${isActive ? "bg-spruce-700 text-paper" : "text-spruce-100 hover:bg-spruce-700/60 hover:text-paper"}`;
+
+export function SiteHeader() {
+  const root = useRootData();
+  return (
+    <header className="no-print bg-spruce-800 text-paper">
+      <div className="mx-auto flex max-w-6xl flex-wrap items-center gap-x-6 gap-y-2 px-6 py-3">
+        <Link to="/" className="flex items-center gap-3">
+          <LogoMark />
+          <span className="font-serif text-2xl font-semibold tracking-tight">Torqueleaf</span>
+        </Link>
+        <nav aria-label="Main" className="flex flex-1 flex-wrap items-center gap-1">
+          <NavLink to="/" end className={navClass}>
+            Library
+          </NavLink>
+          <NavLink to="/tools/circuit" className={navClass}>
+            Circuit planner
+          </NavLink>
+        </nav>
+        <div className="flex items-center gap-2 text-sm">
+          {root?.user ? (
+            <span className="text-spruce-100">{root.user.name}</span>
+          ) : (
+            <>
+              <Link to="/login" className="rounded-md px-3 py-2 font-medium text-spruce-100 hover:text-paper">
+                Sign in
+              </Link>
+              <Link to="/signup" className="rounded-md bg-brass-500 px-3 py-2 font-semibold text-spruce-900 hover:bg-brass-100">
+                Join
+              </Link>
+            </>
+          )}
+        </div>
+      </div>
+    </header>
+  );
+}
+
+/** The standing notice every page carries: the work can hurt people, and the maker's word governs. */
+export function SafetyNotice({ compact = false }: { compact?: boolean }) {
+  return (
+    <aside
+      aria-label="Safety notice"
+      className={`rounded-lg border-l-4 border-z-warning bg-brass-50 ${compact ? "px-4 py-3 text-sm" : "px-5 py-4"} text-ink`}
+    >
+      <p>
+        <strong className="font-semibold">Work safely.</strong> Guides and calculations here are planning aids. Follow the vehicle
+        maker's instructions and torque values, local codes and licensed practice. Have a qualified technician do or check work on
+        high-voltage systems (orange cables) and near airbags, and never work under a vehicle held only by a jack.
+      </p>
+    </aside>
+  );
+}
+
+export function SiteFooter() {
+  const root = useRootData();
+  return (
+    <footer className="no-print mt-16 border-t border-rule bg-paper-deep">
+      <div className="mx-auto grid max-w-6xl gap-6 px-6 py-8 text-sm text-ink-soft md:grid-cols-[2fr_1fr]">
+        <div>
+          <div className="flex items-center gap-2 text-spruce-800">
+            <LogoMark className="h-6 w-6" />
+            <span className="font-serif text-lg font-semibold">Torqueleaf</span>
+          </div>
+          <p className="mt-2 max-w-prose">
+            Install guides for vehicle accessories, written by owners and shop technicians and reviewed by editors before they go
+            live. Every fuse, wire size and torque value is checked by computation, with its sources shown.
+          </p>
+        </div>
+        <ul className="space-y-1">
+          <li>
+            <Link className="hover:text-spruce-800 hover:underline" to="/">
+              Library
+            </Link>
+          </li>
+          <li>
+            <Link className="hover:text-spruce-800 hover:underline" to="/tools/circuit">
+              Circuit planner
+            </Link>
+          </li>
+          {root?.devInbox ? (
+            <li>
+              <a className="hover:text-spruce-800 hover:underline" href="/dev/inbox">
+                Development inbox
+              </a>
+            </li>
+          ) : null}
+        </ul>
+      </div>
+    </footer>
+  );
+}

@@ -1,0 +1,550 @@
+import { relations, sql } from "drizzle-orm";
+import { index, integer, real, sqliteTable, text, uniqueIndex } from "drizzle-orm/sqlite-core";
+import {
+  BATTERY_LOCATIONS,
+  CALLOUT_KINDS,
+  CATEGORIES,
+  DRIVETRAINS,
+  FITMENT_STATUSES,
+  GUIDE_STATES,
+  POWERTRAINS,
+  REVISION_STATES,
+  ROLES,
+} from "../utils/vocab";
+
+// Column names are snake_case in SQL (see `casing` in client.server.ts and drizzle.config.ts).
+const id = () => integer().primaryKey({ autoIncrement: true });
+const createdAt = () => integer({ mode: "timestamp_ms" }).notNull().default(sql`(unixepoch('subsec') * 1000)`);
+const updatedAt = () =>
+  integer({ mode: "timestamp_ms" })
+    .notNull()
+    .default(sql`(unixepoch('subsec') * 1000)`)
+    .$onUpdateFn(() => new Date());
+
+// ── People and access ──────────────────────────────────────────────
+
+export const users = sqliteTable("users", {
+  id: id(),
+  email: text().notNull().unique(),
+  name: text().notNull(),
+  passwordHash: text(),
+  role: text({ enum: ROLES }).notNull().default("reader"),
+  bio: text(),
+  emailVerifiedAt: integer({ mode: "timestamp_ms" }),
+  termsAcceptedAt: integer({ mode: "timestamp_ms" }),
+  disabledAt: integer({ mode: "timestamp_ms" }),
+  createdAt: createdAt(),
+  updatedAt: updatedAt(),
+});
+
+export const oauthAccounts = sqliteTable(
+  "oauth_accounts",
+  {
+    id: id(),
+    userId: integer()
+      .notNull()
+      .references(() => users.id, { onDelete: "cascade" }),
+    provider: text().notNull(),
+    providerUserId: text().notNull(),
+    email: text(),
+    createdAt: createdAt(),
+  },
+  (t) => [uniqueIndex("oauth_provider_user").on(t.provider, t.providerUserId)],
+);
+
+/** Server-side sessions: the cookie carries an opaque token, the table keeps only its hash. */
+export const sessions = sqliteTable(
+  "sessions",
+  {
+    id: text().primaryKey(),
+    userId: integer()
+      .notNull()
+      .references(() => users.id, { onDelete: "cascade" }),
+    userAgent: text(),
+    ipAddress: text(),
+    createdAt: createdAt(),
+    lastSeenAt: integer({ mode: "timestamp_ms" }).notNull(),
+    expiresAt: integer({ mode: "timestamp_ms" }).notNull(),
+    revokedAt: integer({ mode: "timestamp_ms" }),
+  },
+  (t) => [index("sessions_user").on(t.userId)],
+);
+
+export const TOKEN_KINDS = ["verify-email", "reset-password", "link-github"] as const;
+
+/** Single-use mail tokens, stored hashed. */
+export const userTokens = sqliteTable(
+  "user_tokens",
+  {
+    id: id(),
+    userId: integer()
+      .notNull()
+      .references(() => users.id, { onDelete: "cascade" }),
+    kind: text({ enum: TOKEN_KINDS }).notNull(),
+    tokenHash: text().notNull().unique(),
+    data: text({ mode: "json" }).$type<Record<string, unknown>>(),
+    expiresAt: integer({ mode: "timestamp_ms" }).notNull(),
+    usedAt: integer({ mode: "timestamp_ms" }),
+    createdAt: createdAt(),
+  },
+  (t) => [index("user_tokens_user").on(t.userId)],
+);
+
+export const rateLimits = sqliteTable("rate_limits", {
+  key: text().primaryKey(),
+  windowStart: integer({ mode: "timestamp_ms" }).notNull(),
+  count: integer().notNull(),
+});
+
+// ── Vehicle catalogue ──────────────────────────────────────────────
+
+export const makes = sqliteTable("makes", {
+  id: id(),
+  slug: text().notNull().unique(),
+  name: text().notNull(),
+});
+
+export const models = sqliteTable(
+  "models",
+  {
+    id: id(),
+    makeId: integer()
+      .notNull()
+      .references(() => makes.id),
+    slug: text().notNull(),
+    name: text().notNull(),
+    bodyStyle: text(),
+  },
+  (t) => [uniqueIndex("models_make_slug").on(t.makeId, t.slug)],
+);
+
+export const generations = sqliteTable(
+  "generations",
+  {
+    id: id(),
+    modelId: integer()
+      .notNull()
+      .references(() => models.id),
+    slug: text().notNull(),
+    name: text().notNull(),
+    firstYear: integer().notNull(),
+    lastYear: integer(),
+  },
+  (t) => [uniqueIndex("generations_model_slug").on(t.modelId, t.slug)],
+);
+
+export const variants = sqliteTable(
+  "variants",
+  {
+    id: id(),
+    generationId: integer()
+      .notNull()
+      .references(() => generations.id),
+    key: text().notNull().unique(),
+    name: text().notNull(),
+    powertrain: text({ enum: POWERTRAINS }).notNull(),
+    drivetrain: text({ enum: DRIVETRAINS }).notNull(),
+    batteryLocation: text({ enum: BATTERY_LOCATIONS }).notNull(),
+    batteryRunM: real().notNull(),
+  },
+  (t) => [index("variants_generation").on(t.generationId)],
+);
+
+// ── Guides and their revisions ─────────────────────────────────────
+
+/** The guide's own columns mirror its published revision so the Library lists without joins. */
+export const guides = sqliteTable(
+  "guides",
+  {
+    id: id(),
+    slug: text().notNull().unique(),
+    authorId: integer()
+      .notNull()
+      .references(() => users.id),
+    state: text({ enum: GUIDE_STATES }).notNull().default("draft"),
+    title: text().notNull(),
+    summary: text().notNull().default(""),
+    category: text({ enum: CATEGORIES }).notNull(),
+    difficulty: integer().notNull(),
+    minutes: integer().notNull(),
+    publishedRevisionId: integer(),
+    workingRevisionId: integer(),
+    publishedAt: integer({ mode: "timestamp_ms" }),
+    createdAt: createdAt(),
+    updatedAt: updatedAt(),
+  },
+  (t) => [index("guides_state").on(t.state), index("guides_author").on(t.authorId)],
+);
+
+export const revisions = sqliteTable(
+  "revisions",
+  {
+    id: id(),
+    guideId: integer()
+      .notNull()
+      .references(() => guides.id, { onDelete: "cascade" }),
+    number: integer().notNull(),
+    state: text({ enum: REVISION_STATES }).notNull().default("draft"),
+    /** Optimistic concurrency: every save must name the version it edited. */
+    version: integer().notNull().default(1),
+    title: text().notNull(),
+    summary: text().notNull().default(""),
+    category: text({ enum: CATEGORIES }).notNull(),
+    difficulty: integer().notNull(),
+    minutes: integer().notNull(),
+    changeSummary: text(),
+    createdById: integer()
+      .notNull()
+      .references(() => users.id),
+    submittedAt: integer({ mode: "timestamp_ms" }),
+    reviewedAt: integer({ mode: "timestamp_ms" }),
+    reviewedById: integer().references(() => users.id),
+    publishedAt: integer({ mode: "timestamp_ms" }),
+    createdAt: createdAt(),
+    updatedAt: updatedAt(),
+  },
+  (t) => [uniqueIndex("revisions_guide_number").on(t.guideId, t.number), index("revisions_state").on(t.state)],
+);
+
+export const steps = sqliteTable(
+  "steps",
+  {
+    id: id(),
+    revisionId: integer()
+      .notNull()
+      .references(() => revisions.id, { onDelete: "cascade" }),
+    position: integer().notNull(),
+    title: text().notNull(),
+    body: text({ mode: "json" }).notNull().$type<unknown>(),
+    /** Rendered once when the revision is saved, so readers never pay for the rich-text render. */
+    bodyHtml: text().notNull().default(""),
+    bodyText: text().notNull().default(""),
+    liftsVehicle: integer({ mode: "boolean" }).notNull().default(false),
+    disconnectsBattery: integer({ mode: "boolean" }).notNull().default(false),
+  },
+  (t) => [uniqueIndex("steps_revision_position").on(t.revisionId, t.position)],
+);
+
+export const callouts = sqliteTable(
+  "callouts",
+  {
+    id: id(),
+    stepId: integer()
+      .notNull()
+      .references(() => steps.id, { onDelete: "cascade" }),
+    position: integer().notNull(),
+    kind: text({ enum: CALLOUT_KINDS }).notNull(),
+    /** Validated by the engine's callout schema for its kind before it is stored. */
+    data: text({ mode: "json" }).notNull().$type<Record<string, unknown>>(),
+  },
+  (t) => [index("callouts_step").on(t.stepId)],
+);
+
+export type MediaVariant = { width: number; height: number; format: "webp" | "jpeg"; key: string; bytes: number };
+
+export const media = sqliteTable("media", {
+  id: id(),
+  ownerId: integer()
+    .notNull()
+    .references(() => users.id),
+  keyPrefix: text().notNull().unique(),
+  originalName: text(),
+  width: integer().notNull(),
+  height: integer().notNull(),
+  bytes: integer().notNull(),
+  sha256: text().notNull(),
+  variants: text({ mode: "json" }).notNull().$type<MediaVariant[]>(),
+  createdAt: createdAt(),
+});
+
+export const stepPhotos = sqliteTable(
+  "step_photos",
+  {
+    id: id(),
+    stepId: integer()
+      .notNull()
+      .references(() => steps.id, { onDelete: "cascade" }),
+    mediaId: integer()
+      .notNull()
+      .references(() => media.id),
+    position: integer().notNull(),
+    alt: text().notNull(),
+    caption: text(),
+  },
+  (t) => [index("step_photos_step").on(t.stepId)],
+);
+
+export const fitment = sqliteTable(
+  "fitment",
+  {
+    id: id(),
+    revisionId: integer()
+      .notNull()
+      .references(() => revisions.id, { onDelete: "cascade" }),
+    variantId: integer()
+      .notNull()
+      .references(() => variants.id),
+    status: text({ enum: FITMENT_STATUSES }).notNull(),
+    note: text(),
+  },
+  (t) => [uniqueIndex("fitment_revision_variant").on(t.revisionId, t.variantId), index("fitment_variant").on(t.variantId)],
+);
+
+export const parts = sqliteTable(
+  "parts",
+  {
+    id: id(),
+    revisionId: integer()
+      .notNull()
+      .references(() => revisions.id, { onDelete: "cascade" }),
+    position: integer().notNull(),
+    name: text().notNull(),
+    quantity: integer().notNull().default(1),
+    partNumber: text(),
+    notes: text(),
+    stepIndex: integer(),
+  },
+  (t) => [index("parts_revision").on(t.revisionId)],
+);
+
+export const tools = sqliteTable(
+  "tools",
+  {
+    id: id(),
+    revisionId: integer()
+      .notNull()
+      .references(() => revisions.id, { onDelete: "cascade" }),
+    position: integer().notNull(),
+    name: text().notNull(),
+  },
+  (t) => [index("tools_revision").on(t.revisionId)],
+);
+
+// ── Review ─────────────────────────────────────────────────────────
+
+export const REVIEW_DECISIONS = ["request-changes", "approve", "unpublish"] as const;
+
+export const reviews = sqliteTable(
+  "reviews",
+  {
+    id: id(),
+    revisionId: integer()
+      .notNull()
+      .references(() => revisions.id, { onDelete: "cascade" }),
+    editorId: integer()
+      .notNull()
+      .references(() => users.id),
+    decision: text({ enum: REVIEW_DECISIONS }).notNull(),
+    note: text(),
+    createdAt: createdAt(),
+  },
+  (t) => [index("reviews_revision").on(t.revisionId)],
+);
+
+export const FINDING_SEVERITIES = ["blocking", "warning", "info"] as const;
+export const FINDING_STATUSES = ["open", "acknowledged"] as const;
+
+/** Safety findings computed by the engine when a revision is submitted. */
+export const findings = sqliteTable(
+  "findings",
+  {
+    id: id(),
+    revisionId: integer()
+      .notNull()
+      .references(() => revisions.id, { onDelete: "cascade" }),
+    rule: text().notNull(),
+    severity: text({ enum: FINDING_SEVERITIES }).notNull(),
+    stepIndex: integer(),
+    message: text().notNull(),
+    numbers: text({ mode: "json" }).$type<Record<string, number>>(),
+    status: text({ enum: FINDING_STATUSES }).notNull().default("open"),
+    resolvedById: integer().references(() => users.id),
+    resolvedAt: integer({ mode: "timestamp_ms" }),
+    note: text(),
+    createdAt: createdAt(),
+  },
+  (t) => [index("findings_revision").on(t.revisionId)],
+);
+
+export const cautionSignoffs = sqliteTable("caution_signoffs", {
+  id: id(),
+  calloutId: integer()
+    .notNull()
+    .unique()
+    .references(() => callouts.id, { onDelete: "cascade" }),
+  editorId: integer()
+    .notNull()
+    .references(() => users.id),
+  createdAt: createdAt(),
+});
+
+// ── Readers ────────────────────────────────────────────────────────
+
+export const savedVehicles = sqliteTable(
+  "saved_vehicles",
+  {
+    id: id(),
+    userId: integer()
+      .notNull()
+      .references(() => users.id, { onDelete: "cascade" }),
+    variantId: integer()
+      .notNull()
+      .references(() => variants.id),
+    year: integer(),
+    nickname: text(),
+    createdAt: createdAt(),
+  },
+  (t) => [index("saved_vehicles_user").on(t.userId)],
+);
+
+export const checklists = sqliteTable(
+  "checklists",
+  {
+    id: id(),
+    userId: integer()
+      .notNull()
+      .references(() => users.id, { onDelete: "cascade" }),
+    guideId: integer()
+      .notNull()
+      .references(() => guides.id, { onDelete: "cascade" }),
+    revisionId: integer()
+      .notNull()
+      .references(() => revisions.id),
+    title: text().notNull(),
+    createdAt: createdAt(),
+  },
+  (t) => [index("checklists_user").on(t.userId)],
+);
+
+export const checklistItems = sqliteTable(
+  "checklist_items",
+  {
+    id: id(),
+    checklistId: integer()
+      .notNull()
+      .references(() => checklists.id, { onDelete: "cascade" }),
+    position: integer().notNull(),
+    name: text().notNull(),
+    partNumber: text(),
+    quantity: integer().notNull().default(1),
+    checked: integer({ mode: "boolean" }).notNull().default(false),
+  },
+  (t) => [index("checklist_items_checklist").on(t.checklistId)],
+);
+
+export const fitmentReports = sqliteTable(
+  "fitment_reports",
+  {
+    id: id(),
+    guideId: integer()
+      .notNull()
+      .references(() => guides.id, { onDelete: "cascade" }),
+    variantId: integer()
+      .notNull()
+      .references(() => variants.id),
+    userId: integer()
+      .notNull()
+      .references(() => users.id, { onDelete: "cascade" }),
+    status: text({ enum: FITMENT_STATUSES }).notNull(),
+    note: text(),
+    createdAt: createdAt(),
+  },
+  (t) => [index("fitment_reports_guide").on(t.guideId)],
+);
+
+export const comments = sqliteTable(
+  "comments",
+  {
+    id: id(),
+    guideId: integer()
+      .notNull()
+      .references(() => guides.id, { onDelete: "cascade" }),
+    userId: integer()
+      .notNull()
+      .references(() => users.id, { onDelete: "cascade" }),
+    body: text().notNull(),
+    createdAt: createdAt(),
+  },
+  (t) => [index("comments_guide").on(t.guideId)],
+);
+
+// ── Audit ──────────────────────────────────────────────────────────
+
+export const auditLog = sqliteTable(
+  "audit_log",
+  {
+    id: id(),
+    actorId: integer().references(() => users.id),
+    action: text().notNull(),
+    subjectType: text().notNull(),
+    subjectId: text().notNull(),
+    reason: text(),
+    data: text({ mode: "json" }).$type<Record<string, unknown>>(),
+    createdAt: createdAt(),
+  },
+  (t) => [index("audit_subject").on(t.subjectType, t.subjectId), index("audit_created").on(t.createdAt)],
+);
+
+// ── Relations (for the query builder) ──────────────────────────────
+
+export const usersRelations = relations(users, ({ many }) => ({ guides: many(guides) }));
+export const modelsRelations = relations(models, ({ one, many }) => ({
+  make: one(makes, { fields: [models.makeId], references: [makes.id] }),
+  generations: many(generations),
+}));
+export const makesRelations = relations(makes, ({ many }) => ({ models: many(models) }));
+export const generationsRelations = relations(generations, ({ one, many }) => ({
+  model: one(models, { fields: [generations.modelId], references: [models.id] }),
+  variants: many(variants),
+}));
+export const variantsRelations = relations(variants, ({ one }) => ({
+  generation: one(generations, { fields: [variants.generationId], references: [generations.id] }),
+}));
+export const guidesRelations = relations(guides, ({ one, many }) => ({
+  author: one(users, { fields: [guides.authorId], references: [users.id] }),
+  workingRevision: one(revisions, { fields: [guides.workingRevisionId], references: [revisions.id] }),
+  publishedRevision: one(revisions, { fields: [guides.publishedRevisionId], references: [revisions.id] }),
+  revisions: many(revisions),
+}));
+export const revisionsRelations = relations(revisions, ({ one, many }) => ({
+  guide: one(guides, { fields: [revisions.guideId], references: [guides.id] }),
+  steps: many(steps),
+  findings: many(findings),
+}));
+export const stepsRelations = relations(steps, ({ one, many }) => ({
+  revision: one(revisions, { fields: [steps.revisionId], references: [revisions.id] }),
+  callouts: many(callouts),
+  photos: many(stepPhotos),
+}));
+export const calloutsRelations = relations(callouts, ({ one }) => ({
+  step: one(steps, { fields: [callouts.stepId], references: [steps.id] }),
+  signoff: one(cautionSignoffs, { fields: [callouts.id], references: [cautionSignoffs.calloutId] }),
+}));
+export const cautionSignoffsRelations = relations(cautionSignoffs, ({ one }) => ({
+  callout: one(callouts, { fields: [cautionSignoffs.calloutId], references: [callouts.id] }),
+  editor: one(users, { fields: [cautionSignoffs.editorId], references: [users.id] }),
+}));
+export const stepPhotosRelations = relations(stepPhotos, ({ one }) => ({
+  step: one(steps, { fields: [stepPhotos.stepId], references: [steps.id] }),
+  media: one(media, { fields: [stepPhotos.mediaId], references: [media.id] }),
+}));
+export const fitmentRelations = relations(fitment, ({ one }) => ({
+  variant: one(variants, { fields: [fitment.variantId], references: [variants.id] }),
+}));
+export const findingsRelations = relations(findings, ({ one }) => ({
+  revision: one(revisions, { fields: [findings.revisionId], references: [revisions.id] }),
+}));
+export const checklistsRelations = relations(checklists, ({ one, many }) => ({
+  guide: one(guides, { fields: [checklists.guideId], references: [guides.id] }),
+  items: many(checklistItems),
+}));
+export const checklistItemsRelations = relations(checklistItems, ({ one }) => ({
+  checklist: one(checklists, { fields: [checklistItems.checklistId], references: [checklists.id] }),
+}));
+
+export type User = typeof users.$inferSelect;
+export type Guide = typeof guides.$inferSelect;
+export type Revision = typeof revisions.$inferSelect;
+export type Step = typeof steps.$inferSelect;
+export type Variant = typeof variants.$inferSelect;
+export type Media = typeof media.$inferSelect;

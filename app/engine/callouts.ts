@@ -1,0 +1,153 @@
+import { z } from "zod";
+import { checkCircuit, type CircuitResult } from "./circuit";
+import { circuitCalloutExtraShape, circuitInputShape, fieldErrors, loadExclusivity, type FieldErrors } from "./circuit-input";
+import {
+  METRIC_SIZES,
+  PROPERTY_CLASSES,
+  TORQUE_UNITS,
+  convertTorque,
+  estimateTorque,
+  type MetricSize,
+  type PropertyClass,
+  type TorqueEstimate,
+  type TorqueValues,
+} from "./torque";
+
+export const SIGNAL_WORDS = ["DANGER", "WARNING", "CAUTION", "NOTICE"] as const;
+export type SignalWord = (typeof SIGNAL_WORDS)[number];
+
+function text(field: string, max: number) {
+  return z
+    .string({ error: `${field} must be text` })
+    .trim()
+    .min(1, { error: `${field} must not be empty` })
+    .max(max, { error: `${field} must be at most ${max} characters` });
+}
+
+const torqueCalloutObject = z.object({
+  kind: z.literal("torque"),
+  fastener: text("fastener", 200),
+  value: z
+    .number({ error: "value must be a number" })
+    .gt(0, { error: "value must be more than 0" })
+    .max(100_000, { error: "value must be at most 100000" })
+    .optional(),
+  unit: z.enum(TORQUE_UNITS, { error: `unit must be one of ${TORQUE_UNITS.join(", ")}` }).optional(),
+  /** Free text ("M8", "5/16-18") for display; only the metric sizes can be estimated. */
+  size: text("size", 40).optional(),
+  propertyClass: text("propertyClass", 20).optional(),
+  threadlocker: text("threadlocker", 200).optional(),
+  /** True only when the maker publishes no value: the engine then estimates one. */
+  estimate: z.boolean({ error: "estimate must be true or false" }).optional(),
+  lubricated: z.boolean({ error: "lubricated must be true or false" }).optional(),
+});
+
+function isMetricSize(size: string | undefined): size is MetricSize {
+  return (METRIC_SIZES as readonly string[]).includes(size ?? "");
+}
+
+function isPropertyClass(value: string | undefined): value is PropertyClass {
+  return (PROPERTY_CLASSES as readonly string[]).includes(value ?? "");
+}
+
+/** A maker's value and an estimate side by side would invite picking the wrong one, so it is one or the other. */
+export const torqueCalloutSchema = torqueCalloutObject.superRefine((callout, ctx) => {
+  if (callout.estimate === true) {
+    if (callout.value !== undefined) {
+      ctx.addIssue({
+        code: "custom",
+        path: ["estimate"],
+        message: "estimate is only for fasteners without a maker's value; remove value or estimate",
+      });
+    }
+    if (!isMetricSize(callout.size)) {
+      ctx.addIssue({ code: "custom", path: ["size"], message: `size must be one of ${METRIC_SIZES.join(", ")} for an estimate` });
+    }
+    if (!isPropertyClass(callout.propertyClass)) {
+      ctx.addIssue({
+        code: "custom",
+        path: ["propertyClass"],
+        message: `propertyClass must be ${PROPERTY_CLASSES.join(" or ")} for an estimate`,
+      });
+    }
+    return;
+  }
+  if (callout.value === undefined) {
+    ctx.addIssue({ code: "custom", path: ["value"], message: "value is required (or set estimate with size and propertyClass)" });
+  }
+  if (callout.unit === undefined) {
+    ctx.addIssue({ code: "custom", path: ["unit"], message: `unit is required: one of ${TORQUE_UNITS.join(", ")}` });
+  }
+});
+
+export const circuitCalloutSchema = loadExclusivity(
+  z.object({ kind: z.literal("circuit"), ...circuitInputShape, ...circuitCalloutExtraShape }),
+);
+
+export const cautionCalloutSchema = z.object({
+  kind: z.literal("caution"),
+  signalWord: z.enum(SIGNAL_WORDS, { error: `signalWord must be one of ${SIGNAL_WORDS.join(", ")}` }),
+  text: text("text", 2000),
+});
+
+export const tipCalloutSchema = z.object({ kind: z.literal("tip"), text: text("text", 2000) });
+
+export const calloutSchema = z.discriminatedUnion(
+  "kind",
+  [torqueCalloutSchema, circuitCalloutSchema, cautionCalloutSchema, tipCalloutSchema],
+  { error: 'kind must be "torque", "circuit", "caution" or "tip"' },
+);
+
+export type TorqueCallout = z.output<typeof torqueCalloutSchema>;
+export type CircuitCallout = z.output<typeof circuitCalloutSchema>;
+export type CautionCallout = z.output<typeof cautionCalloutSchema>;
+export type TipCallout = z.output<typeof tipCalloutSchema>;
+export type Callout = z.output<typeof calloutSchema>;
+export type CalloutInput = z.input<typeof calloutSchema>;
+
+export type TorqueEvaluation = {
+  kind: "torque";
+  /** The maker's value in every unit; null when the callout is an estimate. */
+  values: TorqueValues | null;
+  estimate: TorqueEstimate | null;
+};
+export type CircuitEvaluation = { kind: "circuit"; result: CircuitResult };
+export type CalloutEvaluation = TorqueEvaluation | CircuitEvaluation | { kind: "caution" | "tip"; result: null };
+
+export function evaluateTorqueCallout(callout: TorqueCallout): TorqueEvaluation {
+  if (callout.value !== undefined && callout.unit !== undefined) {
+    return { kind: "torque", values: convertTorque(callout.value, callout.unit), estimate: null };
+  }
+  if (callout.estimate === true && isMetricSize(callout.size) && isPropertyClass(callout.propertyClass)) {
+    return {
+      kind: "torque",
+      values: null,
+      estimate: estimateTorque({
+        size: callout.size,
+        propertyClass: callout.propertyClass,
+        lubricated: callout.lubricated ?? false,
+      }),
+    };
+  }
+  // Only reachable with a callout that skipped the schema.
+  return { kind: "torque", values: null, estimate: null };
+}
+
+export function evaluateCallout(callout: TorqueCallout): TorqueEvaluation;
+export function evaluateCallout(callout: CircuitCallout): CircuitEvaluation;
+export function evaluateCallout(callout: Callout): CalloutEvaluation;
+export function evaluateCallout(callout: Callout): CalloutEvaluation {
+  switch (callout.kind) {
+    case "torque":
+      return evaluateTorqueCallout(callout);
+    case "circuit":
+      return { kind: "circuit", result: checkCircuit(callout) };
+    default:
+      return { kind: callout.kind, result: null };
+  }
+}
+
+export function parseCallout(raw: unknown): { ok: true; value: Callout } | { ok: false; fields: FieldErrors } {
+  const parsed = calloutSchema.safeParse(raw);
+  return parsed.success ? { ok: true, value: parsed.data } : { ok: false, fields: fieldErrors(parsed.error) };
+}

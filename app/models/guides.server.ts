@@ -1,0 +1,231 @@
+import { and, asc, eq, inArray, like, sql } from "drizzle-orm";
+import type { Db } from "~/db/client.server";
+import { callouts, fitment, guides, media, parts, revisions, stepPhotos, steps, tools, variants } from "~/db/schema";
+import type { Callout } from "~/engine/callouts";
+import { runSafetyRules } from "~/engine/rules";
+import { RichTextError, renderBody } from "~/services/richtext.server";
+import { AppError, fromDbError, notFound } from "~/utils/errors";
+import type { Powertrain } from "~/utils/vocab";
+import { auditInsert } from "./audit.server";
+import type { DraftInput, GuideMetaInput } from "./guide-input";
+
+export function slugify(title: string) {
+  return (
+    title
+      .normalize("NFKD")
+      .replace(/[\u0300-\u036f]/g, "")
+      .toLowerCase()
+      .replace(/[^a-z0-9]+/g, "-")
+      .replace(/^-+|-+$/g, "")
+      .slice(0, 80) || "guide"
+  );
+}
+
+async function uniqueSlug(db: Db, title: string) {
+  const base = slugify(title);
+  const taken = new Set(
+    (
+      await db
+        .select({ slug: guides.slug })
+        .from(guides)
+        .where(like(guides.slug, `${base}%`))
+    ).map((r) => r.slug),
+  );
+  if (!taken.has(base)) return base;
+  for (let n = 2; ; n++) if (!taken.has(`${base}-${n}`)) return `${base}-${n}`;
+}
+
+/** Runs a batch and turns the database's concurrency and freeze refusals into 409s. */
+export async function runBatch(db: Db, queries: Parameters<Db["batch"]>[0]) {
+  try {
+    return await db.batch(queries);
+  } catch (error) {
+    if (process.env.DEBUG_DB) console.log(error);
+    throw fromDbError(error) ?? error;
+  }
+}
+
+export async function createGuide(db: Db, authorId: number, input: GuideMetaInput, options: { slug?: string } = {}) {
+  const meta = {
+    title: input.title,
+    summary: input.summary,
+    category: input.category,
+    difficulty: input.difficulty,
+    minutes: input.minutes,
+  };
+  const slug = await uniqueSlug(db, options.slug ?? meta.title);
+  const guideId = sql`(SELECT id FROM guides WHERE slug = ${slug})`;
+  await runBatch(db, [
+    db.insert(guides).values({ ...meta, slug, authorId, state: "draft" }),
+    db.insert(revisions).values({ ...meta, guideId: sql`${guideId}`, number: 1, createdById: authorId }),
+    db
+      .update(guides)
+      .set({ workingRevisionId: sql`(SELECT id FROM revisions WHERE guide_id = ${guideId} AND number = 1)` })
+      .where(eq(guides.slug, slug)),
+    auditInsert(db, { actorId: authorId, action: "guide.create", subjectType: "guide", subjectId: slug }),
+  ]);
+  const guide = await db.query.guides.findFirst({ where: eq(guides.slug, slug) });
+  if (!guide?.workingRevisionId) throw new Error("guide was not created");
+  return { id: guide.id, slug, draft: { revisionId: guide.workingRevisionId, version: 1 } };
+}
+
+export async function getGuideById(db: Db, id: number) {
+  return db.query.guides.findFirst({ where: eq(guides.id, id) });
+}
+
+/** A revision with everything in it, in order: the editor's and the review desk's view. */
+export async function loadRevision(db: Db, revisionId: number) {
+  const revision = await db.query.revisions.findFirst({ where: eq(revisions.id, revisionId) });
+  if (!revision) return null;
+  const stepRows = await db.query.steps.findMany({
+    where: eq(steps.revisionId, revisionId),
+    orderBy: asc(steps.position),
+    with: {
+      callouts: { orderBy: asc(callouts.position) },
+      photos: { orderBy: asc(stepPhotos.position), with: { media: true } },
+    },
+  });
+  const [fitmentRows, partRows, toolRows] = await Promise.all([
+    db.query.fitment.findMany({
+      where: eq(fitment.revisionId, revisionId),
+      with: { variant: { with: { generation: { with: { model: { with: { make: true } } } } } } },
+    }),
+    db.query.parts.findMany({ where: eq(parts.revisionId, revisionId), orderBy: asc(parts.position) }),
+    db.query.tools.findMany({ where: eq(tools.revisionId, revisionId), orderBy: asc(tools.position) }),
+  ]);
+  return { revision, steps: stepRows, fitment: fitmentRows, parts: partRows, tools: toolRows };
+}
+
+export type LoadedRevision = NonNullable<Awaited<ReturnType<typeof loadRevision>>>;
+
+/** The engine's view of a revision: what the safety rules read. Rows that do not fit are left out. */
+export function rulesInput(loaded: Pick<LoadedRevision, "steps" | "fitment">) {
+  return {
+    steps: loaded.steps.map((s) => ({
+      title: s.title,
+      liftsVehicle: s.liftsVehicle,
+      disconnectsBattery: s.disconnectsBattery,
+      callouts: s.callouts.map((c) => ({ kind: c.kind, ...c.data }) as Callout),
+    })),
+    fitmentPowertrains: [
+      ...new Set(loaded.fitment.filter((f) => f.status !== "does-not-fit").map((f) => f.variant.powertrain)),
+    ] as Powertrain[],
+  };
+}
+
+/**
+ * Replaces the working revision's content in one batch. The first statement moves the version on
+ * by one; a trigger refuses it when another save came first or the revision is already submitted,
+ * and the whole batch rolls back.
+ */
+export async function saveDraft(db: Db, guideId: number, actorId: number, input: DraftInput) {
+  const guide = await getGuideById(db, guideId);
+  if (!guide?.workingRevisionId) throw notFound("This guide");
+  const revisionId = guide.workingRevisionId;
+
+  const fields: Record<string, string> = {};
+  const rendered = input.steps.map((step, i) => {
+    try {
+      return renderBody(step.body);
+    } catch (error) {
+      if (!(error instanceof RichTextError)) throw error;
+      fields[`steps.${i}.body`] = error.message;
+      return { html: "", text: "" };
+    }
+  });
+  const variantIds = input.fitment.map((f) => f.variantId);
+  const knownVariants = variantIds.length
+    ? await db.select({ id: variants.id, powertrain: variants.powertrain }).from(variants).where(inArray(variants.id, variantIds))
+    : [];
+  input.fitment.forEach((row, i) => {
+    if (!knownVariants.some((v) => v.id === row.variantId)) fields[`fitment.${i}.variantId`] = "Unknown vehicle variant";
+  });
+  const mediaIds = input.steps.flatMap((s) => s.photos.map((p) => p.mediaId));
+  const knownMedia = mediaIds.length
+    ? new Set((await db.select({ id: media.id }).from(media).where(inArray(media.id, mediaIds))).map((m) => m.id))
+    : new Set<number>();
+  input.steps.forEach((s, i) => {
+    s.photos.forEach((p, j) => {
+      if (!knownMedia.has(p.mediaId)) fields[`steps.${i}.photos.${j}.mediaId`] = "This photo was not uploaded";
+    });
+  });
+  if (Object.keys(fields).length) throw new AppError(400, "invalid", "Some fields need attention.", fields);
+
+  const stepId = (position: number) => sql`(SELECT id FROM steps WHERE revision_id = ${revisionId} AND position = ${position})`;
+  const meta = {
+    title: input.title,
+    summary: input.summary,
+    category: input.category,
+    difficulty: input.difficulty,
+    minutes: input.minutes,
+  };
+  const queries = [
+    db
+      .update(revisions)
+      .set({ ...meta, version: input.version + 1 })
+      .where(eq(revisions.id, revisionId)),
+    // A never-published guide lists under its working title in the author's workbench.
+    ...(guide.publishedRevisionId ? [] : [db.update(guides).set(meta).where(eq(guides.id, guideId))]),
+    db.delete(steps).where(eq(steps.revisionId, revisionId)),
+    db.delete(fitment).where(eq(fitment.revisionId, revisionId)),
+    db.delete(parts).where(eq(parts.revisionId, revisionId)),
+    db.delete(tools).where(eq(tools.revisionId, revisionId)),
+    ...input.steps.flatMap((step, position) => [
+      db.insert(steps).values({
+        revisionId,
+        position,
+        title: step.title,
+        body: step.body,
+        bodyHtml: rendered[position].html,
+        bodyText: rendered[position].text,
+        liftsVehicle: step.liftsVehicle,
+        disconnectsBattery: step.disconnectsBattery,
+      }),
+      ...step.callouts.map((callout, i) => {
+        const { kind, ...data } = callout;
+        return db.insert(callouts).values({ stepId: sql`${stepId(position)}`, position: i, kind, data });
+      }),
+      ...step.photos.map((photo, i) => db.insert(stepPhotos).values({ stepId: sql`${stepId(position)}`, position: i, ...photo })),
+    ]),
+    ...input.fitment.map((row) => db.insert(fitment).values({ revisionId, ...row })),
+    ...input.parts.map((part, position) => db.insert(parts).values({ revisionId, position, ...part })),
+    ...input.tools.map((tool, position) => db.insert(tools).values({ revisionId, position, ...tool })),
+  ];
+  await runBatch(db, queries as unknown as Parameters<Db["batch"]>[0]);
+
+  const findings = runSafetyRules({
+    steps: input.steps.map((s) => ({ ...s, callouts: s.callouts })),
+    fitmentPowertrains: [
+      ...new Set(
+        input.fitment
+          .filter((f) => f.status !== "does-not-fit")
+          .map((f) => knownVariants.find((v) => v.id === f.variantId)?.powertrain)
+          .filter((p): p is Powertrain => !!p),
+      ),
+    ],
+  });
+  return { version: input.version + 1, revisionId, findings, actorId };
+}
+
+/** What a revision still lacks before an editor can look at it (the API's 422 `missing`). */
+export function missingForSubmit(loaded: LoadedRevision): string[] {
+  const missing: string[] = [];
+  if (loaded.revision.summary.trim().length < 10) missing.push("summary");
+  if (loaded.steps.length === 0) missing.push("steps");
+  if (loaded.steps.some((s) => s.bodyText.trim() === "")) missing.push("steps.body");
+  if (loaded.fitment.length === 0) missing.push("fitment");
+  if (loaded.steps.some((s) => s.photos.some((p) => !p.alt.trim()))) missing.push("steps.photos.alt");
+  return missing;
+}
+
+export async function listGuidesByAuthor(db: Db, authorId: number) {
+  return db.query.guides.findMany({
+    where: eq(guides.authorId, authorId),
+    orderBy: (g, { desc }) => desc(g.updatedAt),
+    with: { workingRevision: true },
+  });
+}
+
+export async function findGuideBySlug(db: Db, slug: string) {
+  return db.query.guides.findFirst({ where: and(eq(guides.slug, slug)) });
+}

@@ -1,0 +1,232 @@
+import { asc, eq, inArray, type SQL, sql } from "drizzle-orm";
+import { z } from "zod";
+import type { Db } from "~/db/client.server";
+import { fitment, guides, stepPhotos, steps } from "~/db/schema";
+import { evaluateCallout } from "~/engine/callouts";
+import type { Storage } from "~/services/storage.server";
+import { CATEGORIES, DRIVETRAINS, POWERTRAINS } from "~/utils/vocab";
+import { publicVariants } from "./media.server";
+
+const slugParam = z
+  .string()
+  .trim()
+  .regex(/^[a-z0-9-]{1,80}$/, "Use the slug from the catalogue")
+  .optional()
+  .catch(undefined);
+
+/** The Library's query string; anything unreadable is dropped rather than failing the page. */
+export const libraryQuerySchema = z.object({
+  make: slugParam,
+  model: slugParam,
+  generation: slugParam,
+  year: z.coerce.number().int().min(1950).max(2100).optional().catch(undefined),
+  powertrain: z.enum(POWERTRAINS).optional().catch(undefined),
+  drivetrain: z.enum(DRIVETRAINS).optional().catch(undefined),
+  category: z.enum(CATEGORIES).optional().catch(undefined),
+  difficulty: z.coerce.number().int().min(1).max(5).optional().catch(undefined),
+  q: z.string().trim().max(200).optional().catch(undefined),
+  page: z.coerce.number().int().min(1).max(1000).default(1).catch(1),
+});
+export type LibraryQuery = z.infer<typeof libraryQuerySchema>;
+
+export function parseLibraryQuery(params: URLSearchParams): LibraryQuery {
+  const raw = Object.fromEntries([...params.entries()].filter(([, v]) => v !== ""));
+  return libraryQuerySchema.parse(raw);
+}
+
+export const PAGE_SIZE = 12;
+
+/** Turns free text into an FTS5 query of quoted terms (the last one a prefix), so no input is syntax. */
+export function ftsQuery(text: string) {
+  const terms = text.match(/[\p{L}\p{N}]+/gu) ?? [];
+  if (!terms.length) return null;
+  return terms.map((t, i) => `"${t.replace(/"/g, '""')}"${i === terms.length - 1 ? "*" : ""}`).join(" ");
+}
+
+type Dimension = "powertrain" | "drivetrain" | "category";
+
+/** Filters on one fitment row's variant (aliases v, gen, mo, mk), so every vehicle filter holds for the same variant. */
+function vehicleConditions(query: LibraryQuery, without?: Dimension): SQL[] {
+  const vehicle: SQL[] = [];
+  if (query.make) vehicle.push(sql`mk.slug = ${query.make}`);
+  if (query.model) vehicle.push(sql`mo.slug = ${query.model}`);
+  if (query.generation) vehicle.push(sql`gen.slug = ${query.generation}`);
+  if (query.year) vehicle.push(sql`gen.first_year <= ${query.year} AND coalesce(gen.last_year, 9999) >= ${query.year}`);
+  if (query.powertrain && without !== "powertrain") vehicle.push(sql`v.powertrain = ${query.powertrain}`);
+  if (query.drivetrain && without !== "drivetrain") vehicle.push(sql`v.drivetrain = ${query.drivetrain}`);
+  return vehicle;
+}
+
+const VARIANT_JOINS = sql`JOIN variants v ON v.id = f.variant_id
+  JOIN generations gen ON gen.id = v.generation_id
+  JOIN models mo ON mo.id = gen.model_id
+  JOIN makes mk ON mk.id = mo.make_id`;
+
+/** The WHERE clause for published guides matching the query, leaving out one facet's own filter. */
+function conditions(query: LibraryQuery, without?: Dimension, vehicleInline = false): SQL {
+  const vehicle = vehicleConditions(query, without);
+  const parts: SQL[] = [sql`g.state = 'published'`];
+  if (vehicleInline) parts.push(...vehicle);
+  else if (vehicle.length) {
+    parts.push(sql`EXISTS (SELECT 1 FROM fitment f ${VARIANT_JOINS}
+      WHERE f.revision_id = g.published_revision_id AND f.status <> 'does-not-fit' AND ${sql.join(vehicle, sql` AND `)})`);
+  }
+  if (query.category && without !== "category") parts.push(sql`g.category = ${query.category}`);
+  if (query.difficulty) parts.push(sql`g.difficulty = ${query.difficulty}`);
+  return sql.join(parts, sql` AND `);
+}
+
+function searchJoin(query: LibraryQuery): SQL {
+  const match = query.q ? ftsQuery(query.q) : null;
+  if (!match) return sql``;
+  return sql`JOIN (SELECT revision_id, bm25(guide_search, 0, 10, 4, 1) AS rank FROM guide_search WHERE guide_search MATCH ${match}) s
+    ON s.revision_id = g.published_revision_id`;
+}
+
+async function categoryFacet(db: Db, query: LibraryQuery) {
+  const rows = await db.all<{ value: string; n: number }>(sql`
+    SELECT g.category AS value, count(*) AS n FROM guides g ${searchJoin(query)}
+    WHERE ${conditions(query, "category")} GROUP BY g.category`);
+  return Object.fromEntries(rows.map((r) => [r.value, Number(r.n)]));
+}
+
+/** Counts per powertrain / drivetrain among guides that match every other filter. */
+async function vehicleFacet(db: Db, query: LibraryQuery, dimension: "powertrain" | "drivetrain") {
+  const rows = await db.all<{ value: string; n: number }>(sql`
+    SELECT v.${sql.raw(dimension)} AS value, count(DISTINCT g.id) AS n
+    FROM guides g ${searchJoin(query)}
+    JOIN fitment f ON f.revision_id = g.published_revision_id AND f.status <> 'does-not-fit'
+    ${VARIANT_JOINS}
+    WHERE ${conditions(query, dimension, true)}
+    GROUP BY v.${sql.raw(dimension)}`);
+  return Object.fromEntries(rows.map((r) => [r.value, Number(r.n)]));
+}
+
+export async function listPublishedGuides(db: Db, query: LibraryQuery) {
+  const where = conditions(query);
+  const join = searchJoin(query);
+  const order = query.q && ftsQuery(query.q) ? sql`s.rank, g.published_at DESC` : sql`g.published_at DESC, g.id DESC`;
+  const offset = (query.page - 1) * PAGE_SIZE;
+  const [rows, totalRows, powertrain, drivetrain, category] = await Promise.all([
+    db.all<{
+      id: number;
+      slug: string;
+      title: string;
+      summary: string;
+      category: string;
+      difficulty: number;
+      minutes: number;
+      revisionId: number;
+      author: string;
+    }>(sql`SELECT g.id, g.slug, g.title, g.summary, g.category, g.difficulty, g.minutes,
+        g.published_revision_id AS revisionId, u.name AS author
+      FROM guides g ${join} JOIN users u ON u.id = g.author_id
+      WHERE ${where} ORDER BY ${order} LIMIT ${PAGE_SIZE} OFFSET ${offset}`),
+    db.all<{ n: number }>(sql`SELECT count(*) AS n FROM guides g ${join} WHERE ${where}`),
+    vehicleFacet(db, query, "powertrain"),
+    vehicleFacet(db, query, "drivetrain"),
+    categoryFacet(db, query),
+  ]);
+  const fitmentRows = await fitmentFor(
+    db,
+    rows.map((r) => r.revisionId),
+  );
+  return {
+    guides: rows.map(({ id: _id, revisionId, ...g }) => ({
+      ...g,
+      fitment: fitmentRows.filter((f) => f.revisionId === revisionId).map(({ revisionId: _r, ...f }) => f),
+    })),
+    total: Number(totalRows[0]?.n ?? 0),
+    page: query.page,
+    pageSize: PAGE_SIZE,
+    facets: { powertrain, drivetrain, category },
+  };
+}
+
+async function fitmentFor(db: Db, revisionIds: number[]) {
+  if (!revisionIds.length) return [];
+  const rows = await db.query.fitment.findMany({
+    where: inArray(fitment.revisionId, revisionIds),
+    with: { variant: { with: { generation: { with: { model: { with: { make: true } } } } } } },
+  });
+  return rows.map((f) => ({
+    revisionId: f.revisionId,
+    variantId: f.variantId,
+    make: f.variant.generation.model.make.name,
+    model: f.variant.generation.model.name,
+    generation: f.variant.generation.name,
+    years: f.variant.generation.lastYear
+      ? `${f.variant.generation.firstYear}–${f.variant.generation.lastYear}`
+      : `${f.variant.generation.firstYear}–`,
+    variant: f.variant.name,
+    powertrain: f.variant.powertrain,
+    drivetrain: f.variant.drivetrain,
+    batteryLocation: f.variant.batteryLocation,
+    batteryRunM: f.variant.batteryRunM,
+    status: f.status,
+    note: f.note,
+  }));
+}
+
+/** A published guide as the reader sees it, with every callout evaluated by the engine. */
+export async function getPublishedGuide(db: Db, storage: Pick<Storage, "publicUrl">, slug: string) {
+  const guide = await db.query.guides.findFirst({
+    where: eq(guides.slug, slug),
+    with: { publishedRevision: true, author: { columns: { id: true, name: true, bio: true } } },
+  });
+  if (guide?.state !== "published" || !guide.publishedRevision) return null;
+  const revision = guide.publishedRevision;
+  const stepRows = await db.query.steps.findMany({
+    where: eq(steps.revisionId, revision.id),
+    orderBy: asc(steps.position),
+    with: {
+      callouts: { orderBy: (c, { asc }) => asc(c.position) },
+      photos: { orderBy: asc(stepPhotos.position), with: { media: true } },
+    },
+  });
+  const [fitmentRows, partRows, toolRows] = await Promise.all([
+    fitmentFor(db, [revision.id]),
+    db.query.parts.findMany({ where: (p, { eq }) => eq(p.revisionId, revision.id), orderBy: (p, { asc }) => asc(p.position) }),
+    db.query.tools.findMany({ where: (t, { eq }) => eq(t.revisionId, revision.id), orderBy: (t, { asc }) => asc(t.position) }),
+  ]);
+  return {
+    id: guide.id,
+    slug: guide.slug,
+    title: revision.title,
+    summary: revision.summary,
+    category: revision.category,
+    difficulty: revision.difficulty,
+    minutes: revision.minutes,
+    author: guide.author,
+    publishedAt: guide.publishedAt,
+    revision: { number: revision.number, reviewedAt: revision.reviewedAt, changeSummary: revision.changeSummary },
+    steps: stepRows.map((s) => ({
+      title: s.title,
+      html: s.bodyHtml,
+      liftsVehicle: s.liftsVehicle,
+      disconnectsBattery: s.disconnectsBattery,
+      photos: s.photos.map((p) => ({
+        alt: p.alt,
+        caption: p.caption,
+        width: p.media.width,
+        height: p.media.height,
+        variants: publicVariants(storage, p.media.variants),
+      })),
+      callouts: s.callouts.map((c) => {
+        const callout = { kind: c.kind, ...c.data } as Parameters<typeof evaluateCallout>[0];
+        return { ...callout, result: evaluateCallout(callout) };
+      }),
+    })),
+    parts: partRows.map((p) => ({
+      name: p.name,
+      quantity: p.quantity,
+      partNumber: p.partNumber,
+      notes: p.notes,
+      stepIndex: p.stepIndex,
+    })),
+    tools: toolRows.map((t) => ({ name: t.name })),
+    fitment: fitmentRows.map(({ revisionId: _r, ...f }) => f),
+  };
+}
+
+export type PublishedGuide = NonNullable<Awaited<ReturnType<typeof getPublishedGuide>>>;

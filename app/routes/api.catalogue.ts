@@ -1,0 +1,32 @@
+import { getDb } from "~/db/client.server";
+import { getCatalogue } from "~/models/catalogue.server";
+
+export async function loader() {
+  const makes = await getCatalogue(await getDb());
+  return Response.json({
+    makes: makes.map((make) => ({
+      slug: make.slug,
+      name: make.name,
+      models: make.models.map((model) => ({
+        slug: model.slug,
+        name: model.name,
+        bodyStyle: model.bodyStyle,
+        generations: model.generations.map((g) => ({
+          slug: g.slug,
+          name: g.name,
+          firstYear: g.firstYear,
+          lastYear: g.lastYear,
+          variants: g.variants.map((v) => ({
+            id: v.id,
+            key: v.key,
+            name: v.name,
+            powertrain: v.powertrain,
+            drivetrain: v.drivetrain,
+            batteryLocation: v.batteryLocation,
+            batteryRunM: v.batteryRunM,
+          })),
+        })),
+      })),
+    })),
+  });
+}

@@ -1,0 +1,53 @@
+import type { BrowserContext } from "playwright-core";
+import { afterAll, beforeAll, expect, inject, it } from "vitest";
+import { launchBrowser, openPage, screenshot } from "./browser";
+
+const origin = inject("origin");
+let context: BrowserContext;
+
+beforeAll(async () => {
+  context = await launchBrowser();
+});
+
+afterAll(async () => {
+  await context?.close();
+});
+
+it("a reader filters the Library by powertrain, opens a guide and sees cautions and torque in two units", async () => {
+  const { page, errors } = await openPage(context);
+  await page.goto(`${origin}/`);
+  expect(await page.getByRole("heading", { level: 1 }).textContent()).toMatch(/install guides/i);
+  const allCount = await page.locator("article h2").count();
+  expect(allCount).toBeGreaterThanOrEqual(5);
+  await screenshot(page, "library");
+
+  await page.getByRole("radio", { name: /^Hybrid/ }).check();
+  await page.waitForURL(/powertrain=hybrid/);
+  await page.waitForFunction((n) => document.querySelectorAll("article h2").length < n, allCount);
+  const titles = await page.locator("article h2").allTextContents();
+  expect(titles.some((t) => /12 V outlet/i.test(t))).toBe(true);
+  expect(titles.some((t) => /Kestrel/.test(t))).toBe(false);
+  await screenshot(page, "library-hybrid");
+
+  await page.goto(`${origin}/guides/kestrel-hood-auxiliary-lamps`);
+  const caution = page
+    .getByRole("note")
+    .filter({ hasText: /WARNING|CAUTION|DANGER/ })
+    .first();
+  expect(await caution.isVisible()).toBe(true);
+  const torque = (await page.getByTestId("torque-values").first().textContent()) ?? "";
+  // Two units side by side, N·m and lbf·ft (NIST SP 811 conversion on the page).
+  expect(torque).toMatch(/N·m/);
+  expect(torque).toMatch(/lbf·ft/);
+  expect(await page.locator("figure svg title").first().textContent()).toMatch(/wiring/i);
+  await screenshot(page, "guide-lamps");
+
+  expect(errors).toEqual([]);
+});
+
+it("answers an unknown guide with a helpful 404 page", async () => {
+  const { page } = await openPage(context);
+  const response = await page.goto(`${origin}/guides/no-such-guide`);
+  expect(response?.status()).toBe(404);
+  expect(await page.getByRole("link", { name: "Browse the library" }).isVisible()).toBe(true);
+});
