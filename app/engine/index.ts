@@ -10,3 +10,4 @@ export * from "./rules";
 export * from "./diagram";
 export * from "./chart";
 export { num as formatNumber } from "./format";
+export * from "./runs";

@@ -9,11 +9,14 @@ export const SCREENSHOT_DIR = join(process.cwd(), "test-results", "screenshots")
  * Debian's Chromium, headless, in a fresh user-data-dir, with the flags that keep it off the
  * network and out of first-run prompts.
  */
-export async function launchBrowser(viewport = { width: 1280, height: 900 }): Promise<BrowserContext> {
+export async function launchBrowser(
+  options: { viewport?: { width: number; height: number }; javaScriptEnabled?: boolean } = {},
+): Promise<BrowserContext> {
   return chromium.launchPersistentContext(mkdtempSync(join(tmpdir(), "torqueleaf-chromium-")), {
     executablePath: process.env.CHROMIUM_PATH ?? "/usr/bin/chromium",
     headless: true,
-    viewport,
+    viewport: options.viewport ?? { width: 1280, height: 900 },
+    javaScriptEnabled: options.javaScriptEnabled ?? true,
     args: [
       "--headless",
       "--no-sandbox",

@@ -1,4 +1,5 @@
 import { type ChildProcess, spawn } from "node:child_process";
+import { createWriteStream } from "node:fs";
 import { join } from "node:path";
 import type { TestProject } from "vitest/node";
 import { TMP_DIR } from "../support/base-db";
@@ -34,13 +35,15 @@ export async function setup(project: TestProject) {
     },
     stdio: ["ignore", "pipe", "pipe"],
   });
+  // The server's own log, for reading after a failed run.
+  const log = createWriteStream(join(TMP_DIR, "e2e-server.log"));
   let output = "";
-  server.stdout?.on("data", (chunk) => {
-    output += chunk;
-  });
-  server.stderr?.on("data", (chunk) => {
-    output += chunk;
-  });
+  for (const stream of [server.stdout, server.stderr]) {
+    stream?.on("data", (chunk) => {
+      output += chunk;
+      log.write(chunk);
+    });
+  }
   const { copyFileSync } = await import("node:fs");
   copyFileSync(join(TMP_DIR, "base.db"), join(TMP_DIR, "e2e.db"));
   const deadline = Date.now() + 60_000;

@@ -16,6 +16,7 @@ afterAll(async () => {
 it("a reader filters the Library by powertrain, opens a guide and sees cautions and torque in two units", async () => {
   const { page, errors } = await openPage(context);
   await page.goto(`${origin}/`);
+  await page.waitForLoadState("networkidle");
   expect(await page.getByRole("heading", { level: 1 }).textContent()).toMatch(/install guides/i);
   const allCount = await page.locator("article h2").count();
   expect(allCount).toBeGreaterThanOrEqual(5);
