@@ -119,12 +119,17 @@ export function CircuitResults({ result, relay }: { result: CircuitResult; relay
   );
 }
 
+/** Markup drawn by the engine's diagram and chart functions, which escape every text they place. */
+export function EngineSvg({ svg, className = "" }: { svg: string; className?: string }) {
+  // biome-ignore lint/security/noDangerouslySetInnerHtml: built by app/engine from numbers and escaped labels
+  return <div className={`tl-figure ${className}`} dangerouslySetInnerHTML={{ __html: svg }} />;
+}
+
 /** The wiring diagram drawn by the engine (escaped SVG markup). */
 export function CircuitFigure({ input, result, id }: { input: DiagramInput; result: CircuitResult; id: string }) {
   return (
     <figure className="tl-figure mt-4 rounded-md border border-rule bg-paper p-3">
-      {/* biome-ignore lint/security/noDangerouslySetInnerHtml: the engine builds this SVG and escapes every text in it */}
-      <div dangerouslySetInnerHTML={{ __html: wiringDiagramSvg(input, result, { idPrefix: id }) }} />
+      <EngineSvg svg={wiringDiagramSvg(input, result, { idPrefix: id })} />
       <figcaption className="mt-2 text-xs text-ink-soft">
         Wiring diagram. Relay terminals numbered per DIN 72552: 30 supply, 87 load, 85 and 86 coil.
       </figcaption>

@@ -1,7 +1,7 @@
 import { useState } from "react";
 import { Form } from "react-router";
 import { SafetyNotice } from "~/components/chrome";
-import { CircuitFigure, CircuitResults } from "~/components/circuit-results";
+import { CircuitFigure, CircuitResults, EngineSvg } from "~/components/circuit-results";
 import { FUSE_OPTIONS, type PlannerValues, planCircuit, valuesFromForm, WIRE_OPTIONS } from "~/components/planner-form";
 import { getDb } from "~/db/client.server";
 import { dropChartSvg } from "~/engine/chart";
@@ -312,11 +312,7 @@ export default function CircuitPlanner({ loaderData, actionData }: Route.Compone
                   Each line is a wire size; the dashed line is your {plan.input.dropLimitPct} % limit and the marker your run.
                   Sizes under the limit at your run length are fine for drop; the fuse check still applies.
                 </p>
-                {/* biome-ignore lint/security/noDangerouslySetInnerHtml: the engine builds this SVG and escapes every text in it */}
-                <div
-                  className="tl-figure mt-3"
-                  dangerouslySetInnerHTML={{ __html: dropChartSvg(plan.input, plan.result, { idPrefix: "planner-chart" }) }}
-                />
+                <EngineSvg className="mt-3" svg={dropChartSvg(plan.input, plan.result, { idPrefix: "planner-chart" })} />
               </div>
             </div>
           ) : (
