@@ -1,5 +1,6 @@
 import type { CircuitResult } from "~/engine/circuit";
 import { type DiagramInput, wiringDiagramSvg } from "~/engine/diagram";
+import { sourceRef } from "~/engine/sources";
 import { wireLabel } from "~/engine/wire";
 import { round } from "~/utils/format";
 
@@ -64,7 +65,10 @@ export function CircuitResults({ result, relay }: { result: CircuitResult; relay
           {result.findings.map((f) => (
             <li key={f.rule} className={`rounded-md border-l-4 px-3 py-2 ${SEVERITY_STYLE[f.severity]}`}>
               <strong className="mr-1">{SEVERITY_LABEL[f.severity]}:</strong>
-              {f.message} <span className="text-xs text-ink-soft">({f.rule})</span>
+              {f.message}{" "}
+              <span className="text-xs text-ink-soft">
+                ({f.rule}; source: {sourceRef(f.source).title})
+              </span>
             </li>
           ))}
         </ul>

@@ -43,3 +43,5 @@ export default function DevInbox({ loaderData }: Route.ComponentProps) {
     </section>
   );
 }
+
+export { RouteErrorBoundary as ErrorBoundary } from "~/components/error-page";

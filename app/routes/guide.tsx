@@ -22,7 +22,7 @@ export const meta: Route.MetaFunction = ({ data }) =>
 
 type Photo = Route.ComponentProps["loaderData"]["guide"]["steps"][number]["photos"][number];
 
-function StepPhoto({ photo }: { photo: Photo }) {
+function StepPhoto({ photo, eager }: { photo: Photo; eager: boolean }) {
   const webp = photo.variants.filter((v) => v.format === "webp");
   const jpeg = photo.variants.filter((v) => v.format === "jpeg");
   const srcset = (list: typeof webp) => list.map((v) => `${v.url} ${v.width}w`).join(", ");
@@ -38,7 +38,7 @@ function StepPhoto({ photo }: { photo: Photo }) {
           alt={photo.alt}
           width={photo.width}
           height={photo.height}
-          loading="lazy"
+          loading={eager ? "eager" : "lazy"}
           className="h-auto w-full"
         />
       </picture>
@@ -52,7 +52,15 @@ export default function GuidePage({ loaderData }: Route.ComponentProps) {
   const electrical = guide.steps.some((s) => s.callouts.some((c) => c.kind === "circuit") || s.disconnectsBattery);
   const lifting = guide.steps.some((s) => s.liftsVehicle);
   return (
-    <article className={`mx-auto max-w-6xl px-6 py-10 ${print ? "print-layout" : ""}`}>
+    <article className="mx-auto max-w-6xl px-6 py-10">
+      {print ? (
+        // The print view: no site chrome, one column, every photo loaded.
+        <style>
+          {
+            ".no-print{display:none!important}.tl-guide-grid{display:block!important}.tl-guide-grid aside{position:static;margin-top:2rem}"
+          }
+        </style>
+      ) : null}
       <nav aria-label="Breadcrumb" className="no-print text-sm text-ink-soft">
         <Link to="/" className="hover:underline">
           Library
@@ -103,7 +111,7 @@ export default function GuidePage({ loaderData }: Route.ComponentProps) {
         </div>
       ) : null}
 
-      <div className="mt-8 grid gap-10 lg:grid-cols-[1fr_20rem]">
+      <div className="tl-guide-grid mt-8 grid gap-10 lg:grid-cols-[1fr_20rem]">
         <div className="min-w-0">
           <ol className="space-y-12">
             {guide.steps.map((step, index) => (
@@ -128,7 +136,7 @@ export default function GuidePage({ loaderData }: Route.ComponentProps) {
                 {step.photos.length ? (
                   <div className={`mt-4 grid gap-4 ${step.photos.length > 1 ? "sm:grid-cols-2" : ""}`}>
                     {step.photos.map((photo) => (
-                      <StepPhoto key={photo.variants[0]?.url} photo={photo} />
+                      <StepPhoto key={photo.variants[0]?.url} photo={photo} eager={print || index < 2} />
                     ))}
                   </div>
                 ) : null}
@@ -177,7 +185,7 @@ export default function GuidePage({ loaderData }: Route.ComponentProps) {
                     {part.partNumber ? <span className="block font-mono text-xs text-ink-soft">{part.partNumber}</span> : null}
                     {part.notes ? <span className="block text-xs text-ink-soft">{part.notes}</span> : null}
                     {part.stepIndex !== null ? (
-                      <a href={`#step-${part.stepIndex + 1}`} className="text-xs text-spruce-700 hover:underline">
+                      <a href={`#step-${part.stepIndex + 1}`} className="block text-xs text-spruce-700 hover:underline">
                         used in step {part.stepIndex + 1}
                       </a>
                     ) : null}

@@ -177,6 +177,22 @@ export default function Library({ loaderData }: Route.ComponentProps) {
             counts={facets.category}
             selected={query.category}
           />
+          <label className="mt-5 block text-xs font-semibold uppercase tracking-wider text-ink-soft" htmlFor="difficulty">
+            Difficulty
+          </label>
+          <select
+            id="difficulty"
+            name="difficulty"
+            defaultValue={query.difficulty ?? ""}
+            className="mt-2 w-full rounded-md border border-rule bg-paper px-3 py-2 text-sm"
+          >
+            <option value="">Any difficulty</option>
+            {[1, 2, 3, 4, 5].map((d) => (
+              <option key={d} value={d}>
+                {d} · {DIFFICULTY_LABELS[d]}
+              </option>
+            ))}
+          </select>
           <div className="mt-6 flex gap-2">
             <button
               type="submit"
