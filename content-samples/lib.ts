@@ -54,12 +54,14 @@ export const doc = (...blocks: Block[]): Doc => ({ type: "doc", content: blocks 
 export type TorqueCallout = {
   kind: "torque";
   fastener: string;
-  value: number;
-  unit: "N·m" | "lbf·ft" | "lbf·in";
   size?: "M6" | "M8" | "M10" | "M12";
   propertyClass?: "8.8" | "10.9";
   threadlocker?: string;
-};
+} & (
+  | { value: number; unit: "N·m" | "lbf·ft" | "lbf·in"; estimate?: never }
+  // Only where no maker value exists: the engine estimates from size and class.
+  | { estimate: true; size: "M6" | "M8" | "M10" | "M12"; propertyClass: "8.8" | "10.9"; lubricated?: boolean; value?: never }
+);
 
 type Load = { loadWatts: number; loadAmps?: never } | { loadAmps: number; loadWatts?: never };
 

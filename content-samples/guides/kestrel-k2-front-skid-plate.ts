@@ -119,6 +119,13 @@ export default {
           propertyClass: "8.8",
           threadlocker: "medium-strength, removable",
         },
+        {
+          kind: "torque",
+          fastener: "Bracket gusset nut (kit hardware; the kit maker gives no value)",
+          size: "M8",
+          propertyClass: "8.8",
+          estimate: true,
+        },
       ],
     },
     {
