@@ -46,28 +46,49 @@ export async function action({ request }: Route.ActionArgs) {
   return { values };
 }
 
-const input = "mt-1 w-full rounded-md border border-rule bg-paper px-3 py-2 text-sm aria-[invalid=true]:border-z-danger";
-const labelClass = "block text-sm font-medium";
+const inputClass = "mt-1 w-full rounded-md border border-rule bg-paper px-3 py-2 text-sm aria-[invalid=true]:border-z-danger";
 
-function Field({
-  label,
-  name,
-  error,
-  hint,
-  children,
-}: {
+type FieldProps = {
   label: string;
   name: string;
-  error?: string;
+  values: PlannerValues;
+  errors: Record<string, string>;
   hint?: string;
-  children: React.ReactNode;
-}) {
+  options?: readonly { value: string; label: string }[];
+  inputMode?: "decimal" | "numeric";
+};
+
+/**
+ * One labelled planner input or menu. Controlled by the page's state, which the form's own
+ * onChange keeps current; without JavaScript the browser posts the same names.
+ */
+function PlannerField({ label, name, values, errors, hint, options, inputMode }: FieldProps) {
+  const error = errors[name];
+  const common = {
+    id: name,
+    name,
+    value: values[name],
+    onChange: () => {},
+    className: inputClass,
+    "aria-invalid": error ? true : undefined,
+    "aria-describedby": error ? `${name}-error` : undefined,
+  };
   return (
     <div>
-      <label htmlFor={name} className={labelClass}>
+      <label htmlFor={name} className="block text-sm font-medium">
         {label}
       </label>
-      {children}
+      {options ? (
+        <select {...common}>
+          {options.map((o) => (
+            <option key={o.value} value={o.value}>
+              {o.label}
+            </option>
+          ))}
+        </select>
+      ) : (
+        <input {...common} inputMode={inputMode} />
+      )}
       {error ? (
         <p id={`${name}-error`} className="mt-1 text-sm font-medium text-z-danger">
           {error}
@@ -78,6 +99,9 @@ function Field({
     </div>
   );
 }
+
+const opts = (pairs: [string, string][]) => pairs.map(([value, label]) => ({ value, label }));
+const NOT_CHOSEN = { value: "", label: "Not chosen" };
 
 export default function CircuitPlanner({ loaderData, actionData }: Route.ComponentProps) {
   const { variants } = loaderData;
@@ -98,12 +122,7 @@ export default function CircuitPlanner({ loaderData, actionData }: Route.Compone
     if (target.name === "variant" || target.name === "place") next = prefill(next, variants);
     setValues(next);
   };
-  const aria = (name: string) => ({
-    id: name,
-    name,
-    "aria-invalid": errors[name] ? true : undefined,
-    "aria-describedby": errors[name] ? `${name}-error` : undefined,
-  });
+  const field = { values, errors };
 
   return (
     <div className="mx-auto max-w-6xl px-6 py-10">
@@ -129,25 +148,21 @@ export default function CircuitPlanner({ loaderData, actionData }: Route.Compone
             <legend className="text-xs font-semibold uppercase tracking-wider text-ink-soft">
               Start from a vehicle (optional)
             </legend>
-            <Field label="Vehicle" name="variant">
-              <select {...aria("variant")} value={values.variant} onChange={() => {}} className={input}>
-                <option value="">Not chosen</option>
-                {variants.map((v) => (
-                  <option key={v.key} value={v.key}>
-                    {v.label} ({POWERTRAIN_LABELS[v.powertrain]})
-                  </option>
-                ))}
-              </select>
-            </Field>
-            <Field label="Where the accessory goes" name="place">
-              <select {...aria("place")} value={values.place} onChange={() => {}} className={input}>
-                {ACCESSORY_PLACES.map((p) => (
-                  <option key={p} value={p}>
-                    {ACCESSORY_PLACE_LABELS[p]}
-                  </option>
-                ))}
-              </select>
-            </Field>
+            <PlannerField
+              label="Vehicle"
+              name="variant"
+              {...field}
+              options={[
+                NOT_CHOSEN,
+                ...variants.map((v) => ({ value: v.key, label: `${v.label} (${POWERTRAIN_LABELS[v.powertrain]})` })),
+              ]}
+            />
+            <PlannerField
+              label="Where the accessory goes"
+              name="place"
+              {...field}
+              options={ACCESSORY_PLACES.map((p) => ({ value: p, label: ACCESSORY_PLACE_LABELS[p] }))}
+            />
             {variant ? (
               <p className="text-xs text-ink-soft" data-testid="vehicle-note">
                 The 12 V battery sits in the {BATTERY_LOCATION_LABELS[variant.batteryLocation]} ({variant.batteryRunM} m to the
@@ -165,22 +180,31 @@ export default function CircuitPlanner({ loaderData, actionData }: Route.Compone
           </fieldset>
 
           <div className="grid grid-cols-2 gap-3">
-            <Field label="System voltage" name="systemVoltage" error={errors.systemVoltage}>
-              <select {...aria("systemVoltage")} value={values.systemVoltage} onChange={() => {}} className={input}>
-                <option value="12">12 V</option>
-                <option value="24">24 V</option>
-              </select>
-            </Field>
-            <Field label="Load given in" name="loadKind">
-              <select {...aria("loadKind")} value={values.loadKind} onChange={() => {}} className={input}>
-                <option value="watts">watts (W)</option>
-                <option value="amps">amps (A)</option>
-              </select>
-            </Field>
+            <PlannerField
+              label="System voltage"
+              name="systemVoltage"
+              {...field}
+              options={opts([
+                ["12", "12 V"],
+                ["24", "24 V"],
+              ])}
+            />
+            <PlannerField
+              label="Load given in"
+              name="loadKind"
+              {...field}
+              options={opts([
+                ["watts", "watts (W)"],
+                ["amps", "amps (A)"],
+              ])}
+            />
           </div>
-          <Field label={values.loadKind === "amps" ? "Load current (A)" : "Load power (W)"} name="load" error={errors.load}>
-            <input {...aria("load")} inputMode="decimal" value={values.load} onChange={() => {}} className={input} />
-          </Field>
+          <PlannerField
+            label={values.loadKind === "amps" ? "Load current (A)" : "Load power (W)"}
+            name="load"
+            {...field}
+            inputMode="decimal"
+          />
           <label className="flex items-center gap-2 text-sm">
             <input
               type="checkbox"
@@ -192,98 +216,62 @@ export default function CircuitPlanner({ loaderData, actionData }: Route.Compone
             Runs 3 hours or more (continuous)
           </label>
           <div className="grid grid-cols-2 gap-3">
-            <Field label="One-way run (m)" name="oneWayLengthM" error={errors.oneWayLengthM}>
-              <input
-                {...aria("oneWayLengthM")}
-                inputMode="decimal"
-                value={values.oneWayLengthM}
-                onChange={() => {}}
-                className={input}
-              />
-            </Field>
-            <Field label="Return path" name="returnPath" error={errors.returnPath}>
-              <select {...aria("returnPath")} value={values.returnPath} onChange={() => {}} className={input}>
-                <option value="wire">Own return wire</option>
-                <option value="chassis">Chassis ground</option>
-              </select>
-            </Field>
-            <Field label="Wire runs in the" name="location" error={errors.location}>
-              <select {...aria("location")} value={values.location} onChange={() => {}} className={input}>
-                <option value="engine-bay">Engine bay</option>
-                <option value="cabin">Cabin</option>
-              </select>
-            </Field>
-            <Field label="Insulation rating" name="insulationC" error={errors.insulationC}>
-              <select {...aria("insulationC")} value={values.insulationC} onChange={() => {}} className={input}>
-                {INSULATION_RATINGS_C.map((c) => (
-                  <option key={c} value={c}>
-                    {c} °C
-                  </option>
-                ))}
-              </select>
-            </Field>
-            <Field label="Wires in the bundle" name="bundled" error={errors.bundled}>
-              <input {...aria("bundled")} inputMode="numeric" value={values.bundled} onChange={() => {}} className={input} />
-            </Field>
-            <Field label="Drop limit (%)" name="dropLimitPct" error={errors.dropLimitPct} hint="3 for lighting, 10 otherwise">
-              <input
-                {...aria("dropLimitPct")}
-                inputMode="decimal"
-                value={values.dropLimitPct}
-                onChange={() => {}}
-                className={input}
-              />
-            </Field>
+            <PlannerField label="One-way run (m)" name="oneWayLengthM" {...field} inputMode="decimal" />
+            <PlannerField
+              label="Return path"
+              name="returnPath"
+              {...field}
+              options={opts([
+                ["wire", "Own return wire"],
+                ["chassis", "Chassis ground"],
+              ])}
+            />
+            <PlannerField
+              label="Wire runs in the"
+              name="location"
+              {...field}
+              options={opts([
+                ["engine-bay", "Engine bay"],
+                ["cabin", "Cabin"],
+              ])}
+            />
+            <PlannerField
+              label="Insulation rating"
+              name="insulationC"
+              {...field}
+              options={INSULATION_RATINGS_C.map((c) => ({ value: String(c), label: `${c} °C` }))}
+            />
+            <PlannerField label="Wires in the bundle" name="bundled" {...field} inputMode="numeric" />
+            <PlannerField
+              label="Drop limit (%)"
+              name="dropLimitPct"
+              {...field}
+              inputMode="decimal"
+              hint="3 for lighting, 10 otherwise"
+            />
           </div>
           <fieldset className="space-y-3 border-t border-rule pt-4">
             <legend className="text-xs font-semibold uppercase tracking-wider text-ink-soft">Your choices (to check them)</legend>
             <div className="grid grid-cols-2 gap-3">
-              <Field label="Wire size" name="wire" error={errors.wire}>
-                <select {...aria("wire")} value={values.wire} onChange={() => {}} className={input}>
-                  <option value="">Not chosen</option>
-                  {WIRE_OPTIONS.map((o) => (
-                    <option key={o.value} value={o.value}>
-                      {o.label}
-                    </option>
-                  ))}
-                </select>
-              </Field>
-              <Field label="Fuse" name="fuse" error={errors.fuse}>
-                <select {...aria("fuse")} value={values.fuse} onChange={() => {}} className={input}>
-                  <option value="">Not chosen</option>
-                  <option value="none">No fuse</option>
-                  {FUSE_OPTIONS.map((o) => (
-                    <option key={o.value} value={o.value}>
-                      {o.label}
-                    </option>
-                  ))}
-                </select>
-              </Field>
-              <Field label="Fuse to battery (mm)" name="fuseDistanceMm" error={errors.fuseDistanceMm}>
-                <input
-                  {...aria("fuseDistanceMm")}
-                  inputMode="numeric"
-                  value={values.fuseDistanceMm}
-                  onChange={() => {}}
-                  className={input}
-                />
-              </Field>
-              <Field label="Switch rating (A)" name="switchRatingA" error={errors.switchRatingA}>
-                <input
-                  {...aria("switchRatingA")}
-                  inputMode="decimal"
-                  value={values.switchRatingA}
-                  onChange={() => {}}
-                  className={input}
-                />
-              </Field>
-              <Field label="Relay" name="relay" error={errors.relay}>
-                <select {...aria("relay")} value={values.relay} onChange={() => {}} className={input}>
-                  <option value="">Not decided</option>
-                  <option value="yes">Used</option>
-                  <option value="no">Not used</option>
-                </select>
-              </Field>
+              <PlannerField label="Wire size" name="wire" {...field} options={[NOT_CHOSEN, ...WIRE_OPTIONS]} />
+              <PlannerField
+                label="Fuse"
+                name="fuse"
+                {...field}
+                options={[NOT_CHOSEN, { value: "none", label: "No fuse" }, ...FUSE_OPTIONS]}
+              />
+              <PlannerField label="Fuse to battery (mm)" name="fuseDistanceMm" {...field} inputMode="numeric" />
+              <PlannerField label="Switch rating (A)" name="switchRatingA" {...field} inputMode="decimal" />
+              <PlannerField
+                label="Relay"
+                name="relay"
+                {...field}
+                options={opts([
+                  ["", "Not decided"],
+                  ["yes", "Used"],
+                  ["no", "Not used"],
+                ])}
+              />
             </div>
           </fieldset>
           <input type="hidden" name="conductorTempC" value={values.conductorTempC} />

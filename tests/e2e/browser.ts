@@ -2,6 +2,7 @@ import { mkdirSync, mkdtempSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { type BrowserContext, chromium, type Page } from "playwright-core";
+import { afterAll, beforeAll } from "vitest";
 
 export const SCREENSHOT_DIR = join(process.cwd(), "test-results", "screenshots");
 
@@ -44,4 +45,19 @@ export async function openPage(context: BrowserContext): Promise<{ page: Page; e
 export async function screenshot(page: Page, name: string) {
   mkdirSync(SCREENSHOT_DIR, { recursive: true });
   await page.screenshot({ path: join(SCREENSHOT_DIR, `${name}.png`), fullPage: true });
+}
+
+/** One browser for the calling test file, opened before its tests and closed after them. */
+export function sharedBrowser(): () => BrowserContext {
+  let context: BrowserContext | undefined;
+  beforeAll(async () => {
+    context = await launchBrowser();
+  });
+  afterAll(async () => {
+    await context?.close();
+  });
+  return () => {
+    if (!context) throw new Error("the browser is not open yet");
+    return context;
+  };
 }

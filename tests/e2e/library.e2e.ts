@@ -1,20 +1,11 @@
-import type { BrowserContext } from "playwright-core";
-import { afterAll, beforeAll, expect, inject, it } from "vitest";
-import { launchBrowser, openPage, screenshot } from "./browser";
+import { expect, inject, it } from "vitest";
+import { openPage, screenshot, sharedBrowser } from "./browser";
 
 const origin = inject("origin");
-let context: BrowserContext;
-
-beforeAll(async () => {
-  context = await launchBrowser();
-});
-
-afterAll(async () => {
-  await context?.close();
-});
+const browser = sharedBrowser();
 
 it("a reader filters the Library by powertrain, opens a guide and sees cautions and torque in two units", async () => {
-  const { page, errors } = await openPage(context);
+  const { page, errors } = await openPage(browser());
   await page.goto(`${origin}/`);
   await page.waitForLoadState("networkidle");
   expect(await page.getByRole("heading", { level: 1 }).textContent()).toMatch(/install guides/i);
@@ -47,7 +38,7 @@ it("a reader filters the Library by powertrain, opens a guide and sees cautions 
 });
 
 it("labels an estimated torque as an estimate and shows all three units", async () => {
-  const { page, errors } = await openPage(context);
+  const { page, errors } = await openPage(browser());
   await page.goto(`${origin}/guides/kestrel-k2-front-skid-plate`);
   const all = await page.getByTestId("torque-values").allTextContents();
   // ISO 898-1 proof load for M8 class 8.8 (21 200 N), K = 0.20 dry: T = 0.20 × 0.75 × 21 200 N × 8 mm ≈ 25.4 N·m.
@@ -59,7 +50,7 @@ it("labels an estimated torque as an estimate and shows all three units", async 
 });
 
 it("answers an unknown guide with a helpful 404 page", async () => {
-  const { page } = await openPage(context);
+  const { page } = await openPage(browser());
   const response = await page.goto(`${origin}/guides/no-such-guide`);
   expect(response?.status()).toBe(404);
   expect(await page.getByRole("link", { name: "Browse the library" }).isVisible()).toBe(true);

@@ -1,20 +1,11 @@
-import type { BrowserContext } from "playwright-core";
-import { afterAll, beforeAll, expect, inject, it } from "vitest";
-import { launchBrowser, openPage, screenshot } from "./browser";
+import { expect, inject, it } from "vitest";
+import { launchBrowser, openPage, screenshot, sharedBrowser } from "./browser";
 
 const origin = inject("origin");
-let context: BrowserContext;
-
-beforeAll(async () => {
-  context = await launchBrowser();
-});
-
-afterAll(async () => {
-  await context?.close();
-});
+const browser = sharedBrowser();
 
 it("the planner computes as you type, explains and draws the circuit", async () => {
-  const { page, errors } = await openPage(context);
+  const { page, errors } = await openPage(browser());
   await page.goto(`${origin}/tools/circuit`);
   await page.waitForLoadState("networkidle");
   // A pair of lamps, 170 W together at 12 V (common practice: the seed guide's example).
