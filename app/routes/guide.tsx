@@ -57,7 +57,7 @@ export default function GuidePage({ loaderData }: Route.ComponentProps) {
         // The print view: no site chrome, one column, every photo loaded.
         <style>
           {
-            ".no-print{display:none!important}.tl-guide-grid{display:block!important}.tl-guide-grid aside{position:static;margin-top:2rem}"
+            ".no-print{display:none!important}.tl-guide-grid{display:block!important}.tl-guide-grid aside{position:static;margin-top:2rem}.tl-guide-grid figure{max-width:30rem;break-inside:avoid}"
           }
         </style>
       ) : null}
