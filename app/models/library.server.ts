@@ -43,14 +43,14 @@ export function ftsQuery(text: string) {
   return terms.map((t, i) => `"${t.replace(/"/g, '""')}"${i === terms.length - 1 ? "*" : ""}`).join(" ");
 }
 
-type Dimension = "powertrain" | "drivetrain" | "category";
+type Dimension = "powertrain" | "drivetrain" | "category" | "difficulty" | "vehicle";
 
 /** Filters on one fitment row's variant (aliases v, gen, mo, mk), so every vehicle filter holds for the same variant. */
 function vehicleConditions(query: LibraryQuery, without?: Dimension): SQL[] {
   const vehicle: SQL[] = [];
-  if (query.make) vehicle.push(sql`mk.slug = ${query.make}`);
-  if (query.model) vehicle.push(sql`mo.slug = ${query.model}`);
-  if (query.generation) vehicle.push(sql`gen.slug = ${query.generation}`);
+  if (query.make && without !== "vehicle") vehicle.push(sql`mk.slug = ${query.make}`);
+  if (query.model && without !== "vehicle") vehicle.push(sql`mo.slug = ${query.model}`);
+  if (query.generation && without !== "vehicle") vehicle.push(sql`gen.slug = ${query.generation}`);
   if (query.year) vehicle.push(sql`gen.first_year <= ${query.year} AND coalesce(gen.last_year, 9999) >= ${query.year}`);
   if (query.powertrain && without !== "powertrain") vehicle.push(sql`v.powertrain = ${query.powertrain}`);
   if (query.drivetrain && without !== "drivetrain") vehicle.push(sql`v.drivetrain = ${query.drivetrain}`);
@@ -72,7 +72,7 @@ function conditions(query: LibraryQuery, without?: Dimension, vehicleInline = fa
       WHERE f.revision_id = g.published_revision_id AND f.status <> 'does-not-fit' AND ${sql.join(vehicle, sql` AND `)})`);
   }
   if (query.category && without !== "category") parts.push(sql`g.category = ${query.category}`);
-  if (query.difficulty) parts.push(sql`g.difficulty = ${query.difficulty}`);
+  if (query.difficulty && without !== "difficulty") parts.push(sql`g.difficulty = ${query.difficulty}`);
   return sql.join(parts, sql` AND `);
 }
 
@@ -83,22 +83,31 @@ function searchJoin(query: LibraryQuery): SQL {
     ON s.revision_id = g.published_revision_id`;
 }
 
-async function categoryFacet(db: Db, query: LibraryQuery) {
+/** Counts per category or difficulty among guides that match every other filter. */
+async function guideFacet(db: Db, query: LibraryQuery, dimension: "category" | "difficulty") {
   const rows = await db.all<{ value: string; n: number }>(sql`
-    SELECT g.category AS value, count(*) AS n FROM guides g ${searchJoin(query)}
-    WHERE ${conditions(query, "category")} GROUP BY g.category`);
-  return Object.fromEntries(rows.map((r) => [r.value, Number(r.n)]));
+    SELECT g.${sql.raw(dimension)} AS value, count(*) AS n FROM guides g ${searchJoin(query)}
+    WHERE ${conditions(query, dimension)} GROUP BY g.${sql.raw(dimension)}`);
+  return Object.fromEntries(rows.map((r) => [String(r.value), Number(r.n)]));
 }
 
-/** Counts per powertrain / drivetrain among guides that match every other filter. */
-async function vehicleFacet(db: Db, query: LibraryQuery, dimension: "powertrain" | "drivetrain") {
+const VEHICLE_FACET_COLUMN = {
+  powertrain: sql`v.powertrain`,
+  drivetrain: sql`v.drivetrain`,
+  // Keyed like the Library's vehicle menu: "make.model.generation".
+  vehicle: sql`mk.slug || '.' || mo.slug || '.' || gen.slug`,
+};
+
+/** Counts per powertrain, drivetrain or generation among guides that match every other filter. */
+async function vehicleFacet(db: Db, query: LibraryQuery, dimension: keyof typeof VEHICLE_FACET_COLUMN) {
+  const column = VEHICLE_FACET_COLUMN[dimension];
   const rows = await db.all<{ value: string; n: number }>(sql`
-    SELECT v.${sql.raw(dimension)} AS value, count(DISTINCT g.id) AS n
+    SELECT ${column} AS value, count(DISTINCT g.id) AS n
     FROM guides g ${searchJoin(query)}
     JOIN fitment f ON f.revision_id = g.published_revision_id AND f.status <> 'does-not-fit'
     ${VARIANT_JOINS}
     WHERE ${conditions(query, dimension, true)}
-    GROUP BY v.${sql.raw(dimension)}`);
+    GROUP BY value`);
   return Object.fromEntries(rows.map((r) => [r.value, Number(r.n)]));
 }
 
@@ -107,7 +116,7 @@ export async function listPublishedGuides(db: Db, query: LibraryQuery) {
   const join = searchJoin(query);
   const order = query.q && ftsQuery(query.q) ? sql`s.rank, g.published_at DESC` : sql`g.published_at DESC, g.id DESC`;
   const offset = (query.page - 1) * PAGE_SIZE;
-  const [rows, totalRows, powertrain, drivetrain, category] = await Promise.all([
+  const [rows, totalRows, powertrain, drivetrain, category, difficulty, vehicle] = await Promise.all([
     db.all<{
       id: number;
       slug: string;
@@ -125,7 +134,9 @@ export async function listPublishedGuides(db: Db, query: LibraryQuery) {
     db.all<{ n: number }>(sql`SELECT count(*) AS n FROM guides g ${join} WHERE ${where}`),
     vehicleFacet(db, query, "powertrain"),
     vehicleFacet(db, query, "drivetrain"),
-    categoryFacet(db, query),
+    guideFacet(db, query, "category"),
+    guideFacet(db, query, "difficulty"),
+    vehicleFacet(db, query, "vehicle"),
   ]);
   const fitmentRows = await fitmentFor(
     db,
@@ -139,7 +150,7 @@ export async function listPublishedGuides(db: Db, query: LibraryQuery) {
     total: Number(totalRows[0]?.n ?? 0),
     page: query.page,
     pageSize: PAGE_SIZE,
-    facets: { powertrain, drivetrain, category },
+    facets: { powertrain, drivetrain, category, difficulty, vehicle },
   };
 }
 

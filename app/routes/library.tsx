@@ -33,10 +33,11 @@ export async function loader({ request }: Route.LoaderArgs) {
   const vehicles = catalogue.flatMap((make) =>
     make.models.flatMap((model) => [
       { value: `${make.slug}.${model.slug}`, label: `${make.name} ${model.name} (all years)` },
-      ...model.generations.map((g) => ({
-        value: `${make.slug}.${model.slug}.${g.slug}`,
-        label: `${make.name} ${model.name} ${g.name} (${yearsLabel(g.firstYear, g.lastYear)})`,
-      })),
+      ...model.generations.map((g) => {
+        const value = `${make.slug}.${model.slug}.${g.slug}`;
+        const count = result.facets.vehicle[value] ?? 0;
+        return { value, label: `${make.name} ${model.name} ${g.name} (${yearsLabel(g.firstYear, g.lastYear)}) · ${count}` };
+      }),
     ]),
   );
   const selectedVehicle = [query.make, query.model, query.generation].filter(Boolean).join(".");
@@ -189,7 +190,7 @@ export default function Library({ loaderData }: Route.ComponentProps) {
             <option value="">Any difficulty</option>
             {[1, 2, 3, 4, 5].map((d) => (
               <option key={d} value={d}>
-                {d} · {DIFFICULTY_LABELS[d]}
+                {d} · {DIFFICULTY_LABELS[d]} · {facets.difficulty[d] ?? 0}
               </option>
             ))}
           </select>

@@ -51,6 +51,18 @@ describe("GET /api/guides", () => {
     expect(Object.keys(body.facets.powertrain).length).toBeGreaterThan(1);
   });
 
+  it("counts guides per difficulty and per generation beside the other facets", async () => {
+    const all = (await (await get(guidesLoader, "/api/guides")).json()) as GuideList;
+    const sum = (facet: Record<string, number>) => Object.values(facet).reduce((a, b) => a + b, 0);
+    // Every guide has exactly one difficulty, so the counts add up to the total.
+    expect(sum(all.facets.difficulty)).toBe(all.total);
+    expect(all.facets.vehicle["norvik.fjell.f3"]).toBeGreaterThan(0);
+    // Picking a generation does not hide the other generations' counts.
+    const f3 = (await (await get(guidesLoader, "/api/guides?make=norvik&model=fjell&generation=f3")).json()) as GuideList;
+    expect(f3.facets.vehicle["calder.kestrel.k2"]).toBe(all.facets.vehicle["calder.kestrel.k2"]);
+    expect(f3.total).toBe(all.facets.vehicle["norvik.fjell.f3"]);
+  });
+
   it("applies vehicle filters to the same variant", async () => {
     const body = (await (await get(guidesLoader, "/api/guides?powertrain=diesel&drivetrain=FWD")).json()) as GuideList;
     expect(body.total).toBe(0);
