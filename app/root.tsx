@@ -3,14 +3,25 @@ import type { Route } from "./+types/root";
 import "./app.css";
 import { SiteFooter, SiteHeader } from "./components/chrome";
 import { ErrorPage } from "./components/error-page";
+import { crossSiteMiddleware } from "./services/auth/guards.server";
+import { getUser, sessionMiddleware } from "./services/auth/session.server";
 import { env } from "./utils/env.server";
+import { permissionsFor } from "./utils/permissions";
 
 export const links: Route.LinksFunction = () => [{ rel: "icon", href: "/favicon.svg", type: "image/svg+xml" }];
 
-export async function loader(_: Route.LoaderArgs) {
+/**
+ * Runs before every loader and action of every route, resource routes and /api included: refuse
+ * cross-site writes first, then load the session once for the whole request.
+ */
+export const middleware: Route.MiddlewareFunction[] = [crossSiteMiddleware, sessionMiddleware];
+
+/** The signed-in member and what they may do, so screens can hide what they cannot use (the server checks again). */
+export async function loader(args: Route.LoaderArgs) {
+  const user = await getUser(args);
   return {
-    user: null as null | { id: number; name: string; role: string },
-    permissions: [] as string[],
+    user: user ? { id: user.id, name: user.name, email: user.email, role: user.role } : null,
+    permissions: user ? [...permissionsFor(user.role)] : [],
     devInbox: env().LOCAL_FAKES,
   };
 }

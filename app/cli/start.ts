@@ -1,6 +1,7 @@
 import compression from "compression";
 import express from "express";
 import { createRequestHandler } from "@react-router/express";
+import { stampPeerAddress } from "~/services/auth/client-address.server";
 import { boot } from "./boot";
 
 /** Production-style server: the built app behind Express, after boot (fakes, migrations, demo data). */
@@ -9,6 +10,11 @@ const { settings } = await boot();
 const app = express();
 app.disable("x-powered-by");
 if (settings.TRUST_PROXY) app.set("trust proxy", 1);
+// The app sees Fetch requests without a socket; this header (always overwritten) gives it the peer's address.
+app.use((req, _res, next) => {
+  stampPeerAddress(req);
+  next();
+});
 app.use(compression());
 app.use("/assets", express.static("build/client/assets", { immutable: true, maxAge: "1y" }));
 app.use(express.static("build/client", { maxAge: "1h" }));

@@ -1,0 +1,128 @@
+import { z } from "zod";
+import { getDb } from "~/db/client.server";
+import type { User } from "~/db/schema";
+import { enforceLimits } from "~/models/rate-limit.server";
+import { revokeUserSessions } from "~/models/sessions.server";
+import { consumeToken, issueToken } from "~/models/user-tokens.server";
+import { createUser, findUserByEmail, getUserById, markEmailVerified, setPassword } from "~/models/users.server";
+import { sendMail } from "~/services/mail.server";
+import { verifyPassword } from "~/services/password.server";
+import { AppError } from "~/utils/errors";
+import { env } from "~/utils/env.server";
+import { clientAddress } from "./client-address.server";
+import {
+  currentPasswordField,
+  emailField,
+  fieldErrors,
+  nameField,
+  newPasswordField,
+  passwordMatchesIdentity,
+} from "./fields.server";
+import { alreadyRegisteredMail, confirmAddressMail, passwordChangedMail, resetPasswordMail } from "./mails.server";
+
+const address = (request: Request) => clientAddress(request, env().TRUST_PROXY);
+const link = (path: string) => `${env().APP_ORIGIN}${path}`;
+
+function parse<S extends z.ZodType>(schema: S, values: Record<string, string>): z.infer<S> {
+  const parsed = schema.safeParse(values);
+  if (!parsed.success) throw new AppError(400, "invalid", "Some fields need attention.", fieldErrors(parsed.error));
+  return parsed.data;
+}
+
+const identityProblem = "Choose a password that is not your e-mail address or your name.";
+
+export const signUpSchema = z.object({ name: nameField, email: emailField, password: newPasswordField });
+
+/**
+ * Creates an unconfirmed reader and mails the confirmation link. For an address that already has
+ * an account the visible answer is the same; that account's owner gets a notice instead, so the
+ * form cannot be used to find out who is a member.
+ */
+export async function signUp(request: Request, values: Record<string, string>) {
+  const input = parse(signUpSchema, values);
+  if (passwordMatchesIdentity(input.password, input)) {
+    throw new AppError(400, "invalid", "Some fields need attention.", { password: identityProblem });
+  }
+  const db = await getDb();
+  await enforceLimits(db, "sign-up", { address: address(request), account: input.email });
+  const existing = await findUserByEmail(db, input.email);
+  if (existing) {
+    await sendMail(alreadyRegisteredMail(existing.email, existing.name, link("/login"), link("/reset")));
+    return;
+  }
+  const user = await createUser(db, { name: input.name, email: input.email, password: input.password });
+  const token = await issueToken(db, user.id, "verify-email");
+  await sendMail(confirmAddressMail(user.email, user.name, link(`/verify/${token}`)));
+}
+
+/** Sends a fresh confirmation link to an unconfirmed account; the same answer whether or not there is one. */
+export async function resendConfirmation(request: Request, values: Record<string, string>) {
+  const { email } = parse(z.object({ email: emailField }), values);
+  const db = await getDb();
+  await enforceLimits(db, "verify", { address: address(request), account: email });
+  const user = await findUserByEmail(db, email);
+  if (!user || user.emailVerifiedAt || user.disabledAt) return;
+  const token = await issueToken(db, user.id, "verify-email");
+  await sendMail(confirmAddressMail(user.email, user.name, link(`/verify/${token}`)));
+}
+
+/** Uses up a confirmation link; false when it is unknown, used or expired. */
+export async function confirmAddress(request: Request, token: string): Promise<boolean> {
+  const db = await getDb();
+  await enforceLimits(db, "verify", { address: address(request) });
+  const row = await consumeToken(db, token, "verify-email");
+  if (!row) return false;
+  await markEmailVerified(db, row.userId);
+  return true;
+}
+
+/** Mails a reset link when the address has an active account; the caller shows the same answer either way. */
+export async function requestPasswordReset(request: Request, values: Record<string, string>) {
+  const { email } = parse(z.object({ email: emailField }), values);
+  const db = await getDb();
+  await enforceLimits(db, "reset", { address: address(request), account: email });
+  const user = await findUserByEmail(db, email);
+  if (!user || user.disabledAt) return;
+  const token = await issueToken(db, user.id, "reset-password");
+  await sendMail(resetPasswordMail(user.email, user.name, link(`/reset/${token}`)));
+}
+
+/**
+ * Sets the new password from a reset link and ends every session of the account: whoever had
+ * the old password is signed out. Reading the link also proves the address, so it counts as confirmed.
+ */
+export async function completePasswordReset(request: Request, token: string, values: Record<string, string>) {
+  const { password } = parse(z.object({ password: newPasswordField }), values);
+  const db = await getDb();
+  await enforceLimits(db, "reset", { address: address(request) });
+  const row = await consumeToken(db, token, "reset-password");
+  if (!row) throw new AppError(400, "expired", "This reset link has expired or was used already. Ask for a new one.");
+  const user = await getUserById(db, row.userId);
+  if (!user || user.disabledAt) throw new AppError(404, "not-found", "This reset link has expired or was used already.");
+  if (passwordMatchesIdentity(password, user)) {
+    throw new AppError(400, "invalid", "Some fields need attention.", { password: identityProblem });
+  }
+  await setPassword(db, user.id, password);
+  await markEmailVerified(db, user.id);
+  await revokeUserSessions(db, user.id);
+  await sendMail(passwordChangedMail(user.email, user.name, link("/reset")));
+}
+
+/** A signed-in member changes their password; every other session of the account ends. */
+export async function changePassword(user: User, sessionId: string, values: Record<string, string>) {
+  const schema = z.object({
+    currentPassword: user.passwordHash ? currentPasswordField : z.string().optional(),
+    newPassword: newPasswordField,
+  });
+  const input = parse(schema, values);
+  if (user.passwordHash && !(await verifyPassword(input.currentPassword ?? "", user.passwordHash))) {
+    throw new AppError(400, "invalid", "Some fields need attention.", { currentPassword: "That is not your current password." });
+  }
+  if (passwordMatchesIdentity(input.newPassword, user)) {
+    throw new AppError(400, "invalid", "Some fields need attention.", { newPassword: identityProblem });
+  }
+  const db = await getDb();
+  await setPassword(db, user.id, input.newPassword);
+  await revokeUserSessions(db, user.id, sessionId);
+  await sendMail(passwordChangedMail(user.email, user.name, link("/reset")));
+}

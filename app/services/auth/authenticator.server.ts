@@ -1,0 +1,81 @@
+import { randomBytes } from "node:crypto";
+import { Authenticator } from "remix-auth";
+import { FormStrategy } from "remix-auth-form";
+import { z } from "zod";
+import { getDb } from "~/db/client.server";
+import type { User } from "~/db/schema";
+import { enforceLimits } from "~/models/rate-limit.server";
+import { findUserByEmail } from "~/models/users.server";
+import { hashPassword, verifyPassword } from "~/services/password.server";
+import { AppError } from "~/utils/errors";
+import { env } from "~/utils/env.server";
+import { clientAddress } from "./client-address.server";
+import { currentPasswordField, emailField, fieldErrors, formValues } from "./fields.server";
+import { createGitHubStrategy, type GitHubProfile } from "./github.server";
+
+export type Signed = { kind: "password"; user: User } | { kind: "github"; profile: GitHubProfile };
+
+export const signInSchema = z.object({ email: emailField, password: currentPasswordField });
+
+/** One answer for an unknown address and a wrong password, so the form never confirms who has an account. */
+export const WRONG_CREDENTIALS = "That e-mail address and password do not match an account. Check both and try again.";
+
+let dummyHash: Promise<string> | undefined;
+
+/** Checks a password even when there is no account, so both cases take the same scrypt time. */
+async function passwordMatches(user: User | undefined, password: string) {
+  if (user?.passwordHash) return verifyPassword(password, user.passwordHash);
+  dummyHash ??= hashPassword(randomBytes(16).toString("hex"));
+  await verifyPassword(password, await dummyHash);
+  return false;
+}
+
+/** E-mail and password: field checks, then the abuse limits, then the password, then the account's state. */
+async function verifyPasswordSignIn({ form, request }: { form: FormData; request: Request }): Promise<Signed> {
+  const parsed = signInSchema.safeParse(formValues(form));
+  if (!parsed.success) throw new AppError(400, "invalid", "Some fields need attention.", fieldErrors(parsed.error));
+  const { email, password } = parsed.data;
+  const db = await getDb();
+  await enforceLimits(db, "sign-in", { address: clientAddress(request, env().TRUST_PROXY), account: email });
+  const user = await findUserByEmail(db, email);
+  if (!(await passwordMatches(user, password)) || !user) throw new AppError(401, "invalid-credentials", WRONG_CREDENTIALS);
+  // Past this point the password was right, so saying why the account cannot sign in reveals nothing new.
+  if (user.disabledAt) {
+    throw new AppError(403, "disabled", "This account has been disabled by an administrator. Write to the editors to ask why.");
+  }
+  if (!user.emailVerifiedAt) {
+    throw new AppError(
+      403,
+      "unverified",
+      "Confirm your e-mail address first: open the link in the mail we sent when you joined.",
+      {
+        email: "This address is not confirmed yet.",
+      },
+    );
+  }
+  return { kind: "password", user };
+}
+
+let cached: { key: string; authenticator: Authenticator<Signed> } | undefined;
+
+/** The strategies, built from the settings (which the tests and the stand-ins may change at start-up). */
+export function authenticator(): Authenticator<Signed> {
+  const settings = env();
+  const key = [
+    settings.APP_ORIGIN,
+    settings.NODE_ENV,
+    settings.GITHUB_BASE_URL,
+    settings.GITHUB_API_URL,
+    settings.GITHUB_CLIENT_ID,
+  ].join("|");
+  if (cached?.key !== key) {
+    const instance = new Authenticator<Signed>();
+    instance.use(new FormStrategy<Signed>(verifyPasswordSignIn), "password");
+    instance.use(
+      createGitHubStrategy<Signed>(settings, async (profile) => ({ kind: "github", profile })),
+      "github",
+    );
+    cached = { key, authenticator: instance };
+  }
+  return cached.authenticator;
+}
