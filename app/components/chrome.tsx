@@ -1,4 +1,5 @@
-import { Link, NavLink } from "react-router";
+import { Form, Link, NavLink } from "react-router";
+import type { RootData } from "~/root";
 import { useRootData } from "~/root";
 
 export function LogoMark({ className = "h-9 w-9" }: { className?: string }) {
@@ -7,6 +8,57 @@ export function LogoMark({ className = "h-9 w-9" }: { className?: string }) {
 
 const navClass = ({ isActive }: { isActive: boolean }) =>
   `rounded-md px-3 py-2 text-sm font-medium ${isActive ? "bg-spruce-700 text-paper" : "text-spruce-100 hover:bg-spruce-700/60 hover:text-paper"}`;
+
+/**
+ * The signed-in member's menu. Entries show only for the permission (or role) that can use them;
+ * the pages check again on the server. Add an entry here when a new area opens.
+ */
+const MENU: { to: string; label: string; permission?: string; role?: string }[] = [
+  { to: "/me/account", label: "Account and sessions" },
+  { to: "/contributor-terms", label: "Write guides for Torqueleaf", role: "reader" },
+  { to: "/admin/users", label: "Users and roles", permission: "manage:users" },
+];
+
+const ROLE_NAMES: Record<string, string> = { reader: "Reader", author: "Author", editor: "Editor", admin: "Admin" };
+
+function UserMenu({ user, permissions }: { user: NonNullable<RootData["user"]>; permissions: string[] }) {
+  const entries = MENU.filter((e) => (!e.permission || permissions.includes(e.permission)) && (!e.role || e.role === user.role));
+  return (
+    <details className="group relative">
+      <summary className="flex cursor-pointer list-none items-center gap-2 rounded-md px-3 py-2 font-medium text-paper hover:bg-spruce-700/60">
+        <span
+          aria-hidden="true"
+          className="grid h-7 w-7 place-items-center rounded-full bg-brass-500 font-semibold text-spruce-900"
+        >
+          {user.name.trim().charAt(0).toUpperCase() || "?"}
+        </span>
+        <span>{user.name}</span>
+        <span className="sr-only">, account menu</span>
+      </summary>
+      <div className="absolute right-0 z-20 mt-2 w-64 rounded-lg border border-rule bg-white p-2 text-ink shadow-lg">
+        <p className="px-3 py-2 text-xs text-ink-soft">
+          {user.email}
+          <br />
+          {ROLE_NAMES[user.role] ?? user.role}
+        </p>
+        <ul>
+          {entries.map((e) => (
+            <li key={e.to}>
+              <Link to={e.to} className="block rounded-md px-3 py-2 hover:bg-paper-deep">
+                {e.label}
+              </Link>
+            </li>
+          ))}
+        </ul>
+        <Form method="post" action="/logout" className="mt-1 border-t border-rule pt-1">
+          <button type="submit" className="w-full rounded-md px-3 py-2 text-left hover:bg-paper-deep">
+            Sign out
+          </button>
+        </Form>
+      </div>
+    </details>
+  );
+}
 
 export function SiteHeader() {
   const root = useRootData();
@@ -27,7 +79,7 @@ export function SiteHeader() {
         </nav>
         <div className="flex items-center gap-2 text-sm">
           {root?.user ? (
-            <span className="text-spruce-100">{root.user.name}</span>
+            <UserMenu user={root.user} permissions={root.permissions} />
           ) : (
             <>
               <Link to="/login" className="rounded-md px-3 py-2 font-medium text-spruce-100 hover:text-paper">

@@ -1,0 +1,155 @@
+import { Form, Link } from "react-router";
+import { Notice, SubmitButton } from "~/components/auth-form";
+import { ROLES } from "~/utils/vocab";
+import type { Route } from "./+types/admin.users";
+import { usersAction, usersLoader } from "./admin.users.server";
+
+export const meta: Route.MetaFunction = () => [{ title: "Users · Admin · Torqueleaf" }, { name: "robots", content: "noindex" }];
+
+export const loader = (args: Route.LoaderArgs) => usersLoader(args);
+export const action = (args: Route.ActionArgs) => usersAction(args);
+
+const ROLE_LABELS = { reader: "Reader", author: "Author", editor: "Editor", admin: "Admin" } as const;
+const input = "rounded-md border border-rule bg-paper px-3 py-2 text-sm";
+
+export default function AdminUsers({ loaderData, actionData }: Route.ComponentProps) {
+  const { users, total, page, pageSize, query, adminId } = loaderData;
+  const failure = actionData && !actionData.ok ? actionData : null;
+  const pages = Math.max(1, Math.ceil(total / pageSize));
+  const pageLink = (n: number) => {
+    const params = new URLSearchParams();
+    if (query.q) params.set("q", query.q);
+    if (query.role) params.set("role", query.role);
+    params.set("page", String(n));
+    return `?${params}`;
+  };
+
+  return (
+    <div className="mx-auto max-w-6xl px-6 py-10">
+      <h1 className="font-serif text-4xl font-semibold tracking-tight text-spruce-900">Users and roles</h1>
+      <p className="mt-2 text-ink-soft">
+        New members are readers; readers become authors by accepting the contributor terms. Editors and admins are appointed here.
+        Every change is kept in the audit log with your reason.
+      </p>
+
+      <Form method="get" role="search" aria-label="Find users" className="mt-6 flex flex-wrap items-end gap-3">
+        <label className="text-sm">
+          <span className="block font-semibold">Name or e-mail</span>
+          <input name="q" type="search" defaultValue={query.q ?? ""} className={`mt-1 ${input}`} />
+        </label>
+        <label className="text-sm">
+          <span className="block font-semibold">Role</span>
+          <select name="role" defaultValue={query.role ?? ""} className={`mt-1 ${input}`}>
+            <option value="">Any role</option>
+            {ROLES.map((r) => (
+              <option key={r} value={r}>
+                {ROLE_LABELS[r]}
+              </option>
+            ))}
+          </select>
+        </label>
+        <SubmitButton tone="quiet">Show</SubmitButton>
+      </Form>
+
+      <div className="mt-6">
+        {actionData?.ok ? <Notice tone="success">{actionData.message}</Notice> : null}
+        {failure ? <Notice tone="error">{failure.message}</Notice> : null}
+      </div>
+      <p className="text-sm text-ink-soft">{`${total} ${total === 1 ? "account" : "accounts"}`}</p>
+      <div className="mt-3 overflow-x-auto rounded-xl border border-rule bg-white shadow-sm">
+        <table className="w-full text-left text-sm">
+          <thead className="bg-paper-deep text-xs uppercase tracking-wider text-ink-soft">
+            <tr>
+              <th className="px-4 py-3">Member</th>
+              <th className="px-4 py-3">Role</th>
+              <th className="px-4 py-3">Status</th>
+              <th className="px-4 py-3">Change</th>
+            </tr>
+          </thead>
+          <tbody className="divide-y divide-rule">
+            {users.map((u) => {
+              const rowFailure = failure?.values?.userId === String(u.id) ? failure : null;
+              return (
+                <tr key={u.id} className="align-top">
+                  <td className="px-4 py-3">
+                    <p className="font-medium">{u.name}</p>
+                    <p className="text-ink-soft">{u.email}</p>
+                  </td>
+                  <td className="px-4 py-3">{ROLE_LABELS[u.role]}</td>
+                  <td className="px-4 py-3">
+                    {u.disabledAt ? (
+                      <span className="font-semibold text-z-danger">Disabled</span>
+                    ) : u.emailVerifiedAt ? (
+                      "Active"
+                    ) : (
+                      <span className="text-ink-soft">Address not confirmed</span>
+                    )}
+                  </td>
+                  <td className="px-4 py-3">
+                    {u.id === adminId ? (
+                      <span className="text-ink-soft">Your own account</span>
+                    ) : (
+                      <Form method="post" className="flex flex-wrap items-start gap-2" aria-label={`Change ${u.name}`}>
+                        <input type="hidden" name="userId" value={u.id} />
+                        <select name="role" defaultValue={u.role} aria-label={`Role for ${u.name}`} className={input}>
+                          {ROLES.map((r) => (
+                            <option key={r} value={r}>
+                              {ROLE_LABELS[r]}
+                            </option>
+                          ))}
+                        </select>
+                        <div>
+                          <input
+                            name="reason"
+                            placeholder="Reason (kept in the audit log)"
+                            aria-label={`Reason for the change to ${u.name}`}
+                            defaultValue={rowFailure?.values?.reason}
+                            aria-invalid={rowFailure?.fields?.reason ? true : undefined}
+                            className={`${input} w-56`}
+                          />
+                          {rowFailure?.fields?.reason ? (
+                            <p className="mt-1 text-xs font-medium text-z-danger">{rowFailure.fields.reason}</p>
+                          ) : null}
+                        </div>
+                        <SubmitButton name="intent" value="set-role" tone="quiet">
+                          Set role
+                        </SubmitButton>
+                        {u.disabledAt ? (
+                          <SubmitButton name="intent" value="enable" tone="quiet">
+                            Enable
+                          </SubmitButton>
+                        ) : (
+                          <SubmitButton name="intent" value="disable" tone="danger">
+                            Disable
+                          </SubmitButton>
+                        )}
+                      </Form>
+                    )}
+                  </td>
+                </tr>
+              );
+            })}
+          </tbody>
+        </table>
+        {users.length === 0 ? <p className="p-6 text-center text-ink-soft">No accounts match.</p> : null}
+      </div>
+      {pages > 1 ? (
+        <nav aria-label="Pages" className="mt-4 flex items-center gap-2 text-sm">
+          {page > 1 ? (
+            <Link to={pageLink(page - 1)} className="rounded-md border border-rule px-3 py-1.5">
+              Previous
+            </Link>
+          ) : null}
+          <span className="text-ink-soft">{`Page ${page} of ${pages}`}</span>
+          {page < pages ? (
+            <Link to={pageLink(page + 1)} className="rounded-md border border-rule px-3 py-1.5">
+              Next
+            </Link>
+          ) : null}
+        </nav>
+      ) : null}
+    </div>
+  );
+}
+
+export { RouteErrorBoundary as ErrorBoundary } from "~/components/error-page";

@@ -1,0 +1,73 @@
+import { Form, redirect } from "react-router";
+import { z } from "zod";
+import { AuthCard, SubmitButton } from "~/components/auth-form";
+import { getDb } from "~/db/client.server";
+import { cancelLink, confirmLink, pendingLink } from "~/services/auth/github-accounts.server";
+import { expiredCookie, linkCookie, returnToCookie } from "~/services/auth/github-flow.server";
+import { safeRedirect } from "~/services/auth/redirect";
+import { startSession } from "~/services/auth/session.server";
+import type { Route } from "./+types/auth.github.link";
+
+export const meta: Route.MetaFunction = () => [
+  { title: "Link your GitHub identity · Torqueleaf" },
+  { name: "robots", content: "noindex" },
+];
+
+async function tokenOf(request: Request): Promise<string | null> {
+  const value = await linkCookie().parse(request.headers.get("cookie"));
+  return typeof value === "string" ? value : null;
+}
+
+export async function loader({ request }: Route.LoaderArgs) {
+  const token = await tokenOf(request);
+  const pending = token ? await pendingLink(await getDb(), token) : null;
+  if (!pending) throw redirect("/login?notice=link-expired");
+  return { name: pending.user.name, email: pending.user.email, login: pending.link.login };
+}
+
+const answerSchema = z.object({ intent: z.enum(["link", "cancel"], { error: "Choose whether to link the accounts." }) });
+
+/** Linking happens only on the member's explicit yes; either answer uses the pending token up. */
+export async function action({ request }: Route.ActionArgs) {
+  const parsed = answerSchema.safeParse(Object.fromEntries(await request.formData()));
+  if (!parsed.success) return { message: "Choose whether to link the accounts." };
+  const token = await tokenOf(request);
+  const headers = new Headers({ "Set-Cookie": expiredCookie(linkCookie().name) });
+  headers.append("Set-Cookie", expiredCookie(returnToCookie().name));
+  const db = await getDb();
+  if (!token) return redirect("/login?notice=link-expired", { headers });
+  if (parsed.data.intent === "cancel") {
+    await cancelLink(db, token);
+    return redirect("/login", { headers });
+  }
+  const user = await confirmLink(db, token);
+  if (!user) return redirect("/login?notice=link-expired", { headers });
+  headers.append("Set-Cookie", await startSession(request, user.id));
+  return redirect(safeRedirect(await returnToCookie().parse(request.headers.get("cookie"))), { headers });
+}
+
+export default function LinkGitHub({ loaderData, actionData }: Route.ComponentProps) {
+  return (
+    <AuthCard title="Link your GitHub identity?">
+      {actionData?.message ? <p role="alert">{actionData.message}</p> : null}
+      <p>
+        GitHub says <strong>@{loaderData.login}</strong> owns the verified address <strong>{loaderData.email}</strong>, which
+        belongs to the Torqueleaf account of <strong>{loaderData.name}</strong>.
+      </p>
+      <p className="mt-3 text-ink-soft">
+        If that account is yours, link them: from then on either way of signing in opens the same account. If not, cancel and
+        nothing changes.
+      </p>
+      <Form method="post" className="mt-6 flex gap-3">
+        <SubmitButton name="intent" value="link">
+          Link and sign in
+        </SubmitButton>
+        <SubmitButton name="intent" value="cancel" tone="quiet">
+          Cancel
+        </SubmitButton>
+      </Form>
+    </AuthCard>
+  );
+}
+
+export { RouteErrorBoundary as ErrorBoundary } from "~/components/error-page";

@@ -1,0 +1,149 @@
+import { Form, Link, redirect } from "react-router";
+import { AuthCard, Field, Notice, SubmitButton } from "~/components/auth-form";
+import { resendConfirmation } from "~/services/auth/accounts.server";
+import { authenticator } from "~/services/auth/authenticator.server";
+import { formValues } from "~/services/auth/fields.server";
+import { formHeaders, runForm } from "~/services/auth/form-result.server";
+import { redirectIfSignedIn } from "~/services/auth/guards.server";
+import { safeRedirect } from "~/services/auth/redirect";
+import { startSession } from "~/services/auth/session.server";
+import type { Route } from "./+types/login";
+
+export const meta: Route.MetaFunction = () => [
+  { title: "Sign in · Torqueleaf" },
+  { name: "description", content: "Sign in to save vehicles and checklists, write guides or review them." },
+];
+
+/** Messages other steps send people here with; a fixed list, so an address cannot inject text. */
+const NOTICES: Record<string, { tone: "success" | "info" | "error"; text: string }> = {
+  verified: { tone: "success", text: "Your address is confirmed. Sign in to continue." },
+  reset: { tone: "success", text: "Your new password is set and every device was signed out. Sign in with it now." },
+  "signed-out": { tone: "info", text: "You are signed out." },
+  everywhere: { tone: "info", text: "You are signed out on every device." },
+  "github-failed": { tone: "error", text: "Sign-in with GitHub did not finish. Try again, or use your e-mail and password." },
+  "github-disabled": { tone: "error", text: "The account linked to that GitHub identity has been disabled." },
+  "github-no-email": {
+    tone: "error",
+    text: "GitHub did not share a verified e-mail address, so we cannot create an account from it. Verify an address on GitHub, or sign up here with your e-mail.",
+  },
+  "github-unverified": {
+    tone: "error",
+    text: "An account here already uses that GitHub identity's e-mail address, but GitHub does not report the address as verified, so we will not link them. Sign in with your password instead.",
+  },
+  "link-expired": { tone: "info", text: "That link request expired or was already answered. Sign in again to continue." },
+};
+
+export async function loader(args: Route.LoaderArgs) {
+  const params = new URL(args.request.url).searchParams;
+  const redirectTo = safeRedirect(params.get("redirectTo"), "");
+  await redirectIfSignedIn(args, redirectTo || "/");
+  return { redirectTo, notice: NOTICES[params.get("notice") ?? ""] ?? null };
+}
+
+export const headers = formHeaders;
+
+export async function action({ request }: Route.ActionArgs) {
+  // The strategy reads the body itself; this copy is for typing back what was sent.
+  const values = formValues(await request.clone().formData());
+  if (values.intent === "resend") {
+    return runForm(values, async () => {
+      await resendConfirmation(request, values);
+      return {
+        ok: true as const,
+        resent: true,
+        message: "If that address has an account waiting for confirmation, a new link is on its way.",
+      };
+    });
+  }
+  return runForm(values, async () => {
+    const signed = await authenticator().authenticate("password", request);
+    if (signed.kind !== "password") throw new Error("the password strategy returned another kind of sign-in");
+    const cookie = await startSession(request, signed.user.id);
+    return redirect(safeRedirect(values.redirectTo), { headers: { "Set-Cookie": cookie } });
+  });
+}
+
+export default function Login({ loaderData, actionData }: Route.ComponentProps) {
+  const failure = actionData && !actionData.ok ? actionData : null;
+  const resent = actionData?.ok ? actionData : null;
+  const values = failure?.values ?? {};
+  const github = `/auth/github${loaderData.redirectTo ? `?redirectTo=${encodeURIComponent(loaderData.redirectTo)}` : ""}`;
+  const unconfirmed = failure?.fields?.email === "This address is not confirmed yet.";
+  return (
+    <AuthCard
+      title="Sign in"
+      intro={
+        <>
+          New here?{" "}
+          <Link to="/signup" className="font-medium text-spruce-700 underline">
+            Create an account
+          </Link>
+          .
+        </>
+      }
+    >
+      {loaderData.notice ? <Notice tone={loaderData.notice.tone}>{loaderData.notice.text}</Notice> : null}
+      {failure && values.intent !== "resend" ? <Notice tone="error">{failure.message}</Notice> : null}
+      <Form method="post" noValidate>
+        <input type="hidden" name="redirectTo" value={loaderData.redirectTo} />
+        <Field
+          label="E-mail address"
+          name="email"
+          type="email"
+          autoComplete="username"
+          defaultValue={values.email}
+          error={values.intent === "resend" ? undefined : failure?.fields?.email}
+        />
+        <Field
+          label="Password"
+          name="password"
+          type="password"
+          autoComplete="current-password"
+          error={failure?.fields?.password}
+        />
+        <div className="mt-6 flex items-center justify-between gap-3">
+          <SubmitButton>Sign in</SubmitButton>
+          <Link to="/reset" className="text-sm text-spruce-700 underline">
+            Forgot your password?
+          </Link>
+        </div>
+      </Form>
+
+      <div className="my-6 flex items-center gap-3 text-xs uppercase tracking-wider text-ink-soft">
+        <span className="h-px flex-1 bg-rule" /> or <span className="h-px flex-1 bg-rule" />
+      </div>
+      <a
+        href={github}
+        className="block rounded-md border border-spruce-800 px-4 py-2 text-center font-semibold text-spruce-800 hover:bg-spruce-50"
+      >
+        Sign in with GitHub
+      </a>
+
+      <details id="resend" className="mt-6 text-sm" open={unconfirmed || values.intent === "resend"}>
+        <summary className="cursor-pointer text-ink-soft">Did not get the confirmation mail?</summary>
+        {resent ? (
+          <p className="mt-2 text-spruce-800" role="status">
+            {resent.message}
+          </p>
+        ) : null}
+        {failure && values.intent === "resend" ? <Notice tone="error">{failure.message}</Notice> : null}
+        <Form method="post" className="mt-3" noValidate>
+          <input type="hidden" name="intent" value="resend" />
+          <Field
+            label="E-mail address for the new link"
+            id="resend-email"
+            name="email"
+            type="email"
+            defaultValue={values.email}
+            error={values.intent === "resend" ? failure?.fields?.email : undefined}
+          />
+          <div className="mt-3">
+            <SubmitButton tone="quiet">Send a new link</SubmitButton>
+          </div>
+        </Form>
+      </details>
+    </AuthCard>
+  );
+}
+
+export { RouteErrorBoundary as ErrorBoundary } from "~/components/error-page";

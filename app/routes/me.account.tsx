@@ -1,0 +1,156 @@
+import { Form, Link } from "react-router";
+import { Field, Notice, SubmitButton } from "~/components/auth-form";
+import { getDb } from "~/db/client.server";
+import { listLiveSessions } from "~/models/sessions.server";
+import { listOAuthAccounts } from "~/models/users.server";
+import { requireUser } from "~/services/auth/guards.server";
+import { getAuth } from "~/services/auth/session.server";
+import type { Route } from "./+types/me.account";
+import { accountAction } from "./me.account.server";
+
+export const meta: Route.MetaFunction = () => [{ title: "Your account · Torqueleaf" }, { name: "robots", content: "noindex" }];
+
+export async function loader(args: Route.LoaderArgs) {
+  const user = await requireUser(args);
+  const auth = (await getAuth(args))!;
+  const db = await getDb();
+  const [sessions, linked] = await Promise.all([listLiveSessions(db, user.id), listOAuthAccounts(db, user.id)]);
+  return {
+    account: {
+      name: user.name,
+      email: user.email,
+      role: user.role,
+      hasPassword: !!user.passwordHash,
+      termsAcceptedAt: user.termsAcceptedAt,
+    },
+    sessions: sessions.map((s) => ({ ...s, current: s.id === auth.sessionId })),
+    linked,
+  };
+}
+
+export const action = (args: Route.ActionArgs) => accountAction(args);
+
+const when = (d: Date | string) => new Date(d).toLocaleString("en-GB", { dateStyle: "medium", timeStyle: "short" });
+
+function Section({ title, children }: { title: string; children: React.ReactNode }) {
+  return (
+    <section className="mt-8 rounded-xl border border-rule bg-white p-6 shadow-sm">
+      <h2 className="font-serif text-2xl font-semibold text-spruce-900">{title}</h2>
+      <div className="mt-4">{children}</div>
+    </section>
+  );
+}
+
+export default function Account({ loaderData, actionData }: Route.ComponentProps) {
+  const { account, sessions, linked } = loaderData;
+  const result = actionData && "intent" in actionData ? actionData : null;
+  const failure = actionData && !actionData.ok ? actionData : null;
+  const values = failure && "values" in failure ? (failure.values ?? {}) : {};
+  const fields = failure && "fields" in failure ? (failure.fields ?? {}) : {};
+  const intent = result?.intent ?? values.intent;
+  const message = (forIntent: string) =>
+    intent === forIntent && actionData ? <Notice tone={actionData.ok ? "success" : "error"}>{actionData.message}</Notice> : null;
+
+  return (
+    <div className="mx-auto max-w-3xl px-6 py-10">
+      <h1 className="font-serif text-4xl font-semibold tracking-tight text-spruce-900">Your account</h1>
+      <p className="mt-2 text-ink-soft">
+        {account.email} · <span className="capitalize">{account.role}</span>
+        {account.role === "reader" ? (
+          <>
+            {" · "}
+            <Link to="/contributor-terms" className="text-spruce-700 underline">
+              Write guides
+            </Link>
+          </>
+        ) : null}
+      </p>
+
+      <Section title="Name">
+        {message("profile")}
+        <Form method="post" noValidate>
+          <input type="hidden" name="intent" value="profile" />
+          <Field
+            label="Name shown on your guides"
+            name="name"
+            defaultValue={values.name ?? account.name}
+            error={intent === "profile" ? fields.name : undefined}
+          />
+          <div className="mt-4">
+            <SubmitButton>Save the name</SubmitButton>
+          </div>
+        </Form>
+      </Section>
+
+      <Section title="Password">
+        {message("password")}
+        <Form method="post" noValidate>
+          <input type="hidden" name="intent" value="password" />
+          {account.hasPassword ? (
+            <Field
+              label="Current password"
+              name="currentPassword"
+              type="password"
+              autoComplete="current-password"
+              error={fields.currentPassword}
+            />
+          ) : (
+            <p className="mb-3 text-sm text-ink-soft">
+              You sign in with GitHub. Set a password to sign in with your e-mail address too.
+            </p>
+          )}
+          <Field
+            label="New password"
+            name="newPassword"
+            type="password"
+            autoComplete="new-password"
+            error={fields.newPassword}
+            hint="At least 8 characters. Changing it signs out your other devices."
+          />
+          <div className="mt-4">
+            <SubmitButton>Change the password</SubmitButton>
+          </div>
+        </Form>
+        {linked.length ? (
+          <p className="mt-4 text-sm text-ink-soft">
+            Also signs in with:{" "}
+            {linked.map((l) => `${l.provider === "github" ? "GitHub" : l.provider} (${l.email ?? "no address"})`).join(", ")}
+          </p>
+        ) : null}
+      </Section>
+
+      <Section title="Where you are signed in">
+        {message("revoke")}
+        <ul className="divide-y divide-rule">
+          {sessions.map((s) => (
+            <li key={s.id} className="flex flex-wrap items-center justify-between gap-3 py-3">
+              <div className="text-sm">
+                <p className="font-medium">
+                  {s.userAgent ? s.userAgent.slice(0, 80) : "Unknown browser"}
+                  {s.current ? (
+                    <span className="ml-2 rounded-full bg-spruce-50 px-2 py-0.5 text-xs text-spruce-800">this browser</span>
+                  ) : null}
+                </p>
+                <p className="text-ink-soft">
+                  Signed in {when(s.createdAt)} · last seen {when(s.lastSeenAt)}
+                  {s.ipAddress ? ` · from ${s.ipAddress}` : ""}
+                </p>
+              </div>
+              <Form method="post">
+                <input type="hidden" name="intent" value="revoke" />
+                <input type="hidden" name="sessionId" value={s.id} />
+                <SubmitButton tone="quiet">{s.current ? "Sign out here" : "Sign out that device"}</SubmitButton>
+              </Form>
+            </li>
+          ))}
+        </ul>
+        <Form method="post" className="mt-4">
+          <input type="hidden" name="intent" value="everywhere" />
+          <SubmitButton tone="danger">Sign out everywhere</SubmitButton>
+        </Form>
+      </Section>
+    </div>
+  );
+}
+
+export { RouteErrorBoundary as ErrorBoundary } from "~/components/error-page";

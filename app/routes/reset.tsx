@@ -1,0 +1,60 @@
+import { Form, Link } from "react-router";
+import { AuthCard, Field, Notice, SubmitButton } from "~/components/auth-form";
+import { TOKEN_TTL } from "~/models/user-tokens.server";
+import { requestPasswordReset } from "~/services/auth/accounts.server";
+import { formValues } from "~/services/auth/fields.server";
+import { formHeaders, runForm } from "~/services/auth/form-result.server";
+import type { Route } from "./+types/reset";
+
+export const meta: Route.MetaFunction = () => [
+  { title: "Reset your password · Torqueleaf" },
+  { name: "description", content: "Get a link to choose a new Torqueleaf password." },
+];
+
+export function loader() {
+  return { minutes: Math.round(TOKEN_TTL["reset-password"] / 60_000) };
+}
+
+export const headers = formHeaders;
+
+export async function action({ request }: Route.ActionArgs) {
+  const values = formValues(await request.formData());
+  return runForm(values, async () => {
+    await requestPasswordReset(request, values);
+    // Said whether or not the address has an account.
+    return { ok: true as const, email: values.email.trim() };
+  });
+}
+
+export default function Reset({ loaderData, actionData }: Route.ComponentProps) {
+  const failure = actionData && !actionData.ok ? actionData : null;
+  return (
+    <AuthCard title="Reset your password" intro="Tell us the address you signed up with and we will mail you a link.">
+      {actionData?.ok ? (
+        <Notice tone="success">
+          If an account uses <strong>{actionData.email}</strong>, a link is on its way. It works once, for {loaderData.minutes}{" "}
+          minutes.
+        </Notice>
+      ) : null}
+      {failure ? <Notice tone="error">{failure.message}</Notice> : null}
+      <Form method="post" noValidate>
+        <Field
+          label="E-mail address"
+          name="email"
+          type="email"
+          autoComplete="email"
+          defaultValue={failure?.values?.email}
+          error={failure?.fields?.email}
+        />
+        <div className="mt-6 flex items-center justify-between">
+          <SubmitButton>Send the link</SubmitButton>
+          <Link to="/login" className="text-sm text-spruce-700 underline">
+            Back to sign-in
+          </Link>
+        </div>
+      </Form>
+    </AuthCard>
+  );
+}
+
+export { RouteErrorBoundary as ErrorBoundary } from "~/components/error-page";

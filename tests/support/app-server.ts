@@ -1,0 +1,34 @@
+import { createServer as createNetServer } from "node:net";
+import type { ViteDevServer } from "vite";
+import { peerAddressPlugin } from "~/services/auth/client-address.server";
+
+async function freePort(): Promise<number> {
+  return new Promise((resolve, reject) => {
+    const server = createNetServer();
+    server.once("error", reject);
+    server.listen(0, "127.0.0.1", () => {
+      const { port } = server.address() as { port: number };
+      server.close(() => resolve(port));
+    });
+  });
+}
+
+/**
+ * Serves the app from source exactly as `npm run dev` does (Vite with React Router's plugin and
+ * our peer-address stamp), on a free port, against the calling file's database copy. Tests talk
+ * to it over real HTTP, so the root middleware, cookies and redirects are all in play.
+ */
+export async function startAppServer(): Promise<{ origin: string; stop: () => Promise<void> }> {
+  const port = await freePort();
+  const origin = `http://localhost:${port}`;
+  process.env.APP_ORIGIN = origin;
+  process.env.PORT = String(port);
+  const { createServer } = await import("vite");
+  const vite: ViteDevServer = await createServer({
+    logLevel: "error",
+    server: { port, strictPort: true, host: "localhost", hmr: false, watch: null },
+    plugins: [peerAddressPlugin()],
+  });
+  await vite.listen();
+  return { origin, stop: () => vite.close() };
+}
