@@ -1,4 +1,4 @@
-import type { ReactNode } from "react";
+import { type ReactNode, useEffect, useRef } from "react";
 import { useNavigation } from "react-router";
 
 /** What an account action answers when it cannot go ahead: a message, the bad fields, and what was typed. */
@@ -42,8 +42,11 @@ export function Field({
   autoComplete,
   required = true,
   id: givenId,
+  clearOn,
 }: {
   id?: string;
+  /** For password fields: a new value here (the action's latest answer) empties the field, as a full page load would. */
+  clearOn?: unknown;
   label: string;
   name: string;
   type?: string;
@@ -54,6 +57,10 @@ export function Field({
   required?: boolean;
 }) {
   const id = givenId ?? `field-${name}`;
+  const input = useRef<HTMLInputElement>(null);
+  useEffect(() => {
+    if (type === "password" && clearOn && input.current) input.current.value = "";
+  }, [clearOn, type]);
   const described = [error ? `${id}-error` : null, hint ? `${id}-hint` : null].filter(Boolean).join(" ") || undefined;
   return (
     <div className="mt-4 first:mt-0">
@@ -61,6 +68,7 @@ export function Field({
         {label}
       </label>
       <input
+        ref={input}
         id={id}
         name={name}
         type={type}

@@ -1,4 +1,4 @@
-import { Form, Link, NavLink } from "react-router";
+import { Form, Link, NavLink, useLocation } from "react-router";
 import type { RootData } from "~/root";
 import { useRootData } from "~/root";
 
@@ -23,8 +23,10 @@ const ROLE_NAMES: Record<string, string> = { reader: "Reader", author: "Author",
 
 function UserMenu({ user, permissions }: { user: NonNullable<RootData["user"]>; permissions: string[] }) {
   const entries = MENU.filter((e) => (!e.permission || permissions.includes(e.permission)) && (!e.role || e.role === user.role));
+  // Keyed by the address, so the menu closes when one of its links is followed.
+  const { pathname } = useLocation();
   return (
-    <details className="group relative">
+    <details key={pathname} className="group relative">
       <summary className="flex cursor-pointer list-none items-center gap-2 rounded-md px-3 py-2 font-medium text-paper hover:bg-spruce-700/60">
         <span
           aria-hidden="true"

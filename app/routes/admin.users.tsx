@@ -89,7 +89,13 @@ export default function AdminUsers({ loaderData, actionData }: Route.ComponentPr
                     {u.id === adminId ? (
                       <span className="text-ink-soft">Your own account</span>
                     ) : (
-                      <Form method="post" className="flex flex-wrap items-start gap-2" aria-label={`Change ${u.name}`}>
+                      <Form
+                        method="post"
+                        // A new key once the row changes, so the typed reason does not linger for the next change.
+                        key={`${u.role}-${u.disabledAt ? 1 : 0}`}
+                        className="flex flex-wrap items-start gap-2"
+                        aria-label={`Change ${u.name}`}
+                      >
                         <input type="hidden" name="userId" value={u.id} />
                         <select name="role" defaultValue={u.role} aria-label={`Role for ${u.name}`} className={input}>
                           {ROLES.map((r) => (

@@ -106,7 +106,7 @@ export default function ContributorTerms({ loaderData, actionData }: Route.Compo
             {loaderData.welcome ? "Welcome aboard: you are now an author. " : ""}
             You accepted these terms
             {loaderData.acceptedAt
-              ? ` on ${new Date(loaderData.acceptedAt).toLocaleDateString("en-GB", { dateStyle: "long" })}`
+              ? ` on ${new Date(loaderData.acceptedAt).toLocaleDateString("en-GB", { dateStyle: "long", timeZone: "UTC" })}`
               : ""}
             .
           </Notice>

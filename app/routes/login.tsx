@@ -97,6 +97,7 @@ export default function Login({ loaderData, actionData }: Route.ComponentProps) 
         <Field
           label="Password"
           name="password"
+          clearOn={actionData}
           type="password"
           autoComplete="current-password"
           error={failure?.fields?.password}

@@ -30,7 +30,9 @@ export async function loader(args: Route.LoaderArgs) {
 
 export const action = (args: Route.ActionArgs) => accountAction(args);
 
-const when = (d: Date | string) => new Date(d).toLocaleString("en-GB", { dateStyle: "medium", timeStyle: "short" });
+// A fixed time zone, so the server's page and the browser's render say the same thing.
+const when = (d: Date | string) =>
+  `${new Date(d).toLocaleString("en-GB", { dateStyle: "medium", timeStyle: "short", timeZone: "UTC" })} UTC`;
 
 function Section({ title, children }: { title: string; children: React.ReactNode }) {
   return (
@@ -90,6 +92,7 @@ export default function Account({ loaderData, actionData }: Route.ComponentProps
             <Field
               label="Current password"
               name="currentPassword"
+              clearOn={actionData}
               type="password"
               autoComplete="current-password"
               error={fields.currentPassword}
@@ -102,6 +105,7 @@ export default function Account({ loaderData, actionData }: Route.ComponentProps
           <Field
             label="New password"
             name="newPassword"
+            clearOn={actionData}
             type="password"
             autoComplete="new-password"
             error={fields.newPassword}
@@ -124,12 +128,12 @@ export default function Account({ loaderData, actionData }: Route.ComponentProps
         <ul className="divide-y divide-rule">
           {sessions.map((s) => (
             <li key={s.id} className="flex flex-wrap items-center justify-between gap-3 py-3">
-              <div className="text-sm">
-                <p className="font-medium">
-                  {s.userAgent ? s.userAgent.slice(0, 80) : "Unknown browser"}
-                  {s.current ? (
-                    <span className="ml-2 rounded-full bg-spruce-50 px-2 py-0.5 text-xs text-spruce-800">this browser</span>
-                  ) : null}
+              <div className="min-w-0 flex-1 text-sm">
+                {s.current ? (
+                  <p className="text-xs font-semibold uppercase tracking-wider text-spruce-700">This browser</p>
+                ) : null}
+                <p className="truncate font-medium" title={s.userAgent ?? undefined}>
+                  {s.userAgent ?? "Unknown browser"}
                 </p>
                 <p className="text-ink-soft">
                   Signed in {when(s.createdAt)} · last seen {when(s.lastSeenAt)}

@@ -46,6 +46,7 @@ export default function ResetWithToken({ loaderData, actionData }: Route.Compone
         <Field
           label="New password"
           name="password"
+          clearOn={actionData}
           type="password"
           autoComplete="new-password"
           error={failure?.fields?.password}

@@ -80,6 +80,7 @@ export default function SignUp({ loaderData, actionData }: Route.ComponentProps)
         <Field
           label="Password"
           name="password"
+          clearOn={actionData}
           type="password"
           autoComplete="new-password"
           error={failure?.fields?.password}

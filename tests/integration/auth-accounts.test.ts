@@ -210,8 +210,8 @@ describe("account settings", () => {
     const rows = page.split("<li").filter((part) => part.includes('name="sessionId"'));
     expect(rows.length).toBe(2);
     const idOf = (row: string) => row.match(/name="sessionId" value="([0-9a-f]{64})"/)?.[1];
-    expect(rows.filter((row) => row.includes("this browser")).length).toBe(1);
-    const other = idOf(rows.find((row) => !row.includes("this browser"))!);
+    expect(rows.filter((row) => row.includes("This browser")).length).toBe(1);
+    const other = idOf(rows.find((row) => !row.includes("This browser"))!);
 
     // Sign out the other device from this one.
     const revoke = await a.post("/me/account", { intent: "revoke", sessionId: other! });

@@ -50,6 +50,15 @@ describe("sign-in with GitHub through the stand-in", () => {
     const me = await client.me();
     expect(me).toMatchObject({ name: "Tove Arnesen", email: "tove.arnesen@example.test", role: "reader" });
 
+    const { getDb } = await import("~/db/client.server");
+    const { auditLog } = await import("~/db/schema");
+    const { and, eq } = await import("drizzle-orm");
+    const [linked] = await (await getDb())
+      .select()
+      .from(auditLog)
+      .where(and(eq(auditLog.subjectType, "user"), eq(auditLog.subjectId, String(me?.id))));
+    expect(linked).toMatchObject({ action: "user.linked-provider", data: { provider: "github", providerUserId: String(TOVE) } });
+
     const again = new TestClient(app.origin);
     await throughGitHub(again, TOVE);
     expect((await again.me())?.id).toBe(me?.id);

@@ -199,3 +199,48 @@ describe("abuse limits", () => {
     expect(last).toBe(429);
   });
 });
+
+describe("the guards that loaders and actions call", () => {
+  it("answer the API with 401 and 403 in its error shape, and pages with sign-in or 403", async () => {
+    const { requirePermission, requireUser } = await import("~/services/auth/guards.server");
+    // The author (not the reader, whose sign-in budget the tests above used up).
+    const author = await signedIn("author@torqueleaf.test");
+    const cookie = author.cookieHeader();
+    const thrown = async (fn: () => Promise<unknown>) => {
+      try {
+        await fn();
+      } catch (error) {
+        return error;
+      }
+      throw new Error("the guard let the caller through");
+    };
+
+    const anonymousApi = (await thrown(() => requireUser({ request: new Request(`${app.origin}/api/checklists`) }))) as Response;
+    expect(anonymousApi.status).toBe(401);
+    expect(((await anonymousApi.json()) as { error: { code: string } }).error.code).toBe("unauthorized");
+
+    const forbiddenApi = (await thrown(() =>
+      requirePermission(
+        { request: new Request(`${app.origin}/api/review/queue`, { headers: { cookie } }) },
+        "review:revision:any",
+      ),
+    )) as Response;
+    expect(forbiddenApi.status).toBe(403);
+    expect(((await forbiddenApi.json()) as { error: { code: string } }).error.code).toBe("forbidden");
+
+    const anonymousPage = (await thrown(() => requireUser({ request: new Request(`${app.origin}/review?x=1`) }))) as Response;
+    expect(anonymousPage.status).toBe(302);
+    expect(anonymousPage.headers.get("location")).toBe("/login?redirectTo=%2Freview%3Fx%3D1");
+
+    const forbiddenPage = (await thrown(() =>
+      requirePermission({ request: new Request(`${app.origin}/review`, { headers: { cookie } }) }, "review:revision:any"),
+    )) as { init: ResponseInit };
+    expect(forbiddenPage.init.status).toBe(403);
+
+    const user = await requirePermission(
+      { request: new Request(`${app.origin}/me/vehicles`, { headers: { cookie } }) },
+      "save:vehicle:own",
+    );
+    expect(user.email).toBe("author@torqueleaf.test");
+  });
+});

@@ -1,0 +1,167 @@
+import { beforeAll, describe, expect, inject, it } from "vitest";
+import { ACCOUNTS, all, call, only, type Probe, routePatterns, signedIn, signInOverHttp, WHO, type Who } from "./matrix-support";
+
+/**
+ * THE AUTHORIZATION MATRIX: who gets which status from every route in app/routes.ts, called over
+ * HTTP on the built app. A route without a row fails the suite, so a new route must say here who
+ * may use it. Columns: anonymous, reader, author on their own object, author on another author's,
+ * editor, admin. Pages answer a missing sign-in with 302 to /login, the API with 401.
+ *
+ * To add a route: add a row keyed by its pattern exactly as in app/routes.ts (with a leading "/"),
+ * with one probe per method it serves. For objects with an owner use a path function, e.g.
+ * `path: (who) => \`/workbench/guides/${who === "authorOther" ? fixtures.otherGuideId : fixtures.ownGuideId}\``.
+ */
+
+const origin = inject("origin");
+const fixtures = {
+  publishedSlug: "kestrel-hood-auxiliary-lamps",
+  /** In review in the demo data: not public. */
+  unpublishedSlug: "fjell-phev-rear-usb-charger",
+  photo: "",
+};
+const badToken = "not-a-real-token-0123456789abcdefghijklmnop";
+
+const MATRIX: Record<string, Probe[]> = {
+  "/": [{ path: "/", expect: all(200) }],
+  "/guides/:slug": [
+    { path: `/guides/${fixtures.publishedSlug}`, expect: all(200) },
+    { path: `/guides/${fixtures.unpublishedSlug}`, expect: all(404) },
+  ],
+  "/tools/circuit": [
+    { path: "/tools/circuit", expect: all(200) },
+    { method: "POST", path: "/tools/circuit", form: { intent: "check" }, expect: all(200) },
+  ],
+  "/media/*": [
+    { path: () => fixtures.photo, expect: all(200) },
+    { path: "/media/photos/none/missing.webp", expect: all(404) },
+  ],
+  // The e2e server runs with LOCAL_FAKES=1; without it the route answers 404 to everyone.
+  "/dev/inbox": [{ path: "/dev/inbox", expect: all(200) }],
+  "/api/catalogue": [{ path: "/api/catalogue", expect: all(200) }],
+  "/api/guides": [
+    { path: "/api/guides", expect: all(200) },
+    { method: "POST", path: "/api/guides", json: {}, expect: all(405) },
+  ],
+  "/api/guides/:slug": [
+    { path: `/api/guides/${fixtures.publishedSlug}`, expect: all(200) },
+    { path: `/api/guides/${fixtures.unpublishedSlug}`, expect: all(404) },
+  ],
+  "/api/circuit": [
+    { path: "/api/circuit", expect: all(405) },
+    { method: "POST", path: "/api/circuit", json: {}, expect: all(400) },
+  ],
+  "/api/me": [
+    { path: "/api/me", expect: all(200) },
+    { method: "POST", path: "/api/me", json: {}, expect: all(405) },
+  ],
+  // Pages for signing in send a signed-in visitor onwards.
+  "/signup": [
+    { path: "/signup", expect: all(302, { anonymous: 200 }) },
+    { method: "POST", path: "/signup", form: { name: "", email: "", password: "" }, expect: all(302, { anonymous: 400 }) },
+  ],
+  "/login": [
+    { path: "/login", expect: all(302, { anonymous: 200 }) },
+    { method: "POST", path: "/login", form: { email: "", password: "" }, expect: all(302, { anonymous: 400 }) },
+  ],
+  "/logout": [
+    { path: "/logout", expect: signedIn(200, 302) },
+    { method: "POST", path: "/logout", freshSession: true, expect: all(302) },
+  ],
+  "/verify/:token": [
+    { path: `/verify/${badToken}`, expect: all(200) },
+    { method: "POST", path: `/verify/${badToken}`, expect: all(200) },
+  ],
+  "/reset": [
+    { path: "/reset", expect: all(200) },
+    { method: "POST", path: "/reset", form: { email: "" }, expect: all(400) },
+  ],
+  "/reset/:token": [
+    { path: `/reset/${badToken}`, expect: all(200) },
+    { method: "POST", path: `/reset/${badToken}`, form: { password: "a long enough phrase" }, expect: all(400) },
+  ],
+  "/auth/github": [
+    { path: "/auth/github", expect: all(302) },
+    { method: "POST", path: "/auth/github", expect: all(302) },
+  ],
+  "/auth/github/callback": [{ path: "/auth/github/callback?code=x&state=y", expect: all(302) }],
+  "/auth/github/link": [
+    { path: "/auth/github/link", expect: all(302) },
+    { method: "POST", path: "/auth/github/link", form: { intent: "link" }, expect: all(302) },
+  ],
+  "/me/account": [
+    { path: "/me/account", expect: signedIn(200, 302) },
+    { method: "POST", path: "/me/account", form: { intent: "none" }, expect: signedIn(400, 302) },
+  ],
+  "/contributor-terms": [
+    { path: "/contributor-terms", expect: all(200) },
+    // Without the tick nothing changes: a reader is told to tick it, the others already write.
+    { method: "POST", path: "/contributor-terms", form: {}, expect: all(409, { anonymous: 302, reader: 400 }) },
+  ],
+  "/admin/users": [
+    { path: "/admin/users", expect: only(["admin"], 200, 403, 302) },
+    { method: "POST", path: "/admin/users", form: { intent: "none" }, expect: only(["admin"], 400, 403, 302) },
+  ],
+  "/*": [
+    { path: "/no-such-page", expect: all(404) },
+    { path: "/api/no-such-endpoint", expect: all(404) },
+  ],
+};
+
+const sessions = new Map<Who, string | null>();
+
+beforeAll(async () => {
+  sessions.set("anonymous", null);
+  for (const who of WHO) if (who !== "anonymous") sessions.set(who, await signInOverHttp(origin, ACCOUNTS[who]));
+  const guide = (await (await fetch(`${origin}/api/guides/${fixtures.publishedSlug}`)).json()) as {
+    steps: { photos: { variants: { url: string }[] }[] }[];
+  };
+  const url = guide.steps.flatMap((s) => s.photos)[0].variants[0].url;
+  fixtures.photo = new URL(url, origin).pathname;
+});
+
+describe("authorization matrix", () => {
+  it("has exactly one row for every route in app/routes.ts", () => {
+    const routes = new Set(routePatterns());
+    const rows = new Set(Object.keys(MATRIX));
+    expect(
+      [...routes].filter((r) => !rows.has(r)),
+      "routes without a row in the matrix",
+    ).toEqual([]);
+    expect(
+      [...rows].filter((r) => !routes.has(r)),
+      "rows for routes that no longer exist",
+    ).toEqual([]);
+  });
+
+  it("answers every caller with the expected status", async () => {
+    const mismatches: string[] = [];
+    for (const [pattern, probes] of Object.entries(MATRIX)) {
+      for (const probe of probes) {
+        for (const who of WHO) {
+          const account = who === "anonymous" ? null : ACCOUNTS[who];
+          const cookie = probe.freshSession && account ? await signInOverHttp(origin, account) : (sessions.get(who) ?? null);
+          const status = await call(origin, probe, who, cookie);
+          if (status !== probe.expect[who]) {
+            mismatches.push(`${pattern}: ${probe.method ?? "GET"} as ${who} → ${status}, expected ${probe.expect[who]}`);
+          }
+        }
+      }
+    }
+    expect(mismatches).toEqual([]);
+  });
+
+  it("refuses a cross-site POST to every route with 403, before any action runs", async () => {
+    const refused: string[] = [];
+    for (const [pattern, probes] of Object.entries(MATRIX)) {
+      const probe = probes[0];
+      const path = typeof probe.path === "function" ? probe.path("reader") : probe.path;
+      const response = await fetch(`${origin}${path}`, {
+        method: "POST",
+        headers: { origin: "http://evil.example", cookie: sessions.get("admin") ?? "" },
+        redirect: "manual",
+      });
+      if (response.status !== 403) refused.push(`${pattern}: ${response.status}`);
+    }
+    expect(refused, "routes that accepted a cross-site POST").toEqual([]);
+  });
+});
