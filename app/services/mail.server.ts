@@ -19,3 +19,13 @@ function transporter(): Transporter {
 export async function sendMail(mail: Mail) {
   await transporter().sendMail({ from: env().MAIL_FROM, ...mail });
 }
+
+/**
+ * Sends without making the request wait: where the answer must not reveal whether an account
+ * exists, the SMTP round trip must not show in the response time either. A failure is logged.
+ */
+export function sendInBackground(mail: Mail) {
+  sendMail(mail).catch((error: unknown) => {
+    console.error(`Mail "${mail.subject}" to ${mail.to} was not sent:`, error);
+  });
+}

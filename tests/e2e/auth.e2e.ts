@@ -13,8 +13,13 @@ const member = {
 
 /** Opens the development inbox like a person would and returns the first link to this site in the newest matching mail. */
 async function linkFromInbox(page: Page, to: string, subject: RegExp, path: RegExp) {
-  await page.goto(`${origin}/dev/inbox`);
   const mail = page.locator("li").filter({ hasText: to }).filter({ hasText: subject }).first();
+  // Account mail leaves in the background; look again until it has arrived.
+  for (let tries = 0; ; tries++) {
+    await page.goto(`${origin}/dev/inbox`);
+    if ((await mail.count()) > 0 || tries >= 20) break;
+    await page.waitForTimeout(250);
+  }
   const text = (await mail.locator("pre").textContent()) ?? "";
   const match = text.match(path);
   if (!match) throw new Error(`no link in the mail to ${to}:\n${text}`);

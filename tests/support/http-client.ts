@@ -57,13 +57,15 @@ export class TestClient {
 
 type CaughtMail = { id: number; to: string[]; subject: string; text: string; html: string };
 
-/** The newest mail to `address` in the SMTP catcher, waiting briefly for it to arrive. */
-export async function latestMail(address: string, subject?: RegExp): Promise<CaughtMail> {
+/** The newest mail to `address` in the SMTP catcher (newer than `afterId` if given), waiting briefly for it to arrive. */
+export async function latestMail(address: string, subject?: RegExp, afterId = 0): Promise<CaughtMail> {
   const deadline = Date.now() + 5000;
   for (;;) {
     const response = await fetch(`${process.env.MAIL_INBOX_URL}/messages`);
     const { messages } = (await response.json()) as { messages: CaughtMail[] };
-    const found = messages.find((m) => m.to.includes(address.toLowerCase()) && (!subject || subject.test(m.subject)));
+    const found = messages.find(
+      (m) => m.id > afterId && m.to.includes(address.toLowerCase()) && (!subject || subject.test(m.subject)),
+    );
     if (found) return found;
     if (Date.now() > deadline) throw new Error(`no mail to ${address}${subject ? ` matching ${subject}` : ""}`);
     await new Promise((r) => setTimeout(r, 100));

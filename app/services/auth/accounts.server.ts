@@ -3,10 +3,10 @@ import { getDb } from "~/db/client.server";
 import type { User } from "~/db/schema";
 import { enforceLimits } from "~/models/rate-limit.server";
 import { revokeUserSessions } from "~/models/sessions.server";
-import { consumeToken, issueToken } from "~/models/user-tokens.server";
+import { consumeToken, issueToken, peekToken } from "~/models/user-tokens.server";
 import { createUser, findUserByEmail, getUserById, markEmailVerified, setPassword } from "~/models/users.server";
-import { sendMail } from "~/services/mail.server";
-import { verifyPassword } from "~/services/password.server";
+import { sendInBackground, sendMail } from "~/services/mail.server";
+import { hashPassword, verifyPassword } from "~/services/password.server";
 import { AppError } from "~/utils/errors";
 import { env } from "~/utils/env.server";
 import { clientAddress } from "./client-address.server";
@@ -47,12 +47,14 @@ export async function signUp(request: Request, values: Record<string, string>) {
   await enforceLimits(db, "sign-up", { address: address(request), account: input.email });
   const existing = await findUserByEmail(db, input.email);
   if (existing) {
-    await sendMail(alreadyRegisteredMail(existing.email, existing.name, link("/login"), link("/reset")));
+    // The same scrypt cost as creating an account, so the answer takes as long either way.
+    await hashPassword(input.password);
+    sendInBackground(alreadyRegisteredMail(existing.email, existing.name, link("/login"), link("/reset")));
     return;
   }
   const user = await createUser(db, { name: input.name, email: input.email, password: input.password });
   const token = await issueToken(db, user.id, "verify-email");
-  await sendMail(confirmAddressMail(user.email, user.name, link(`/verify/${token}`)));
+  sendInBackground(confirmAddressMail(user.email, user.name, link(`/verify/${token}`)));
 }
 
 /** Sends a fresh confirmation link to an unconfirmed account; the same answer whether or not there is one. */
@@ -63,7 +65,7 @@ export async function resendConfirmation(request: Request, values: Record<string
   const user = await findUserByEmail(db, email);
   if (!user || user.emailVerifiedAt || user.disabledAt) return;
   const token = await issueToken(db, user.id, "verify-email");
-  await sendMail(confirmAddressMail(user.email, user.name, link(`/verify/${token}`)));
+  sendInBackground(confirmAddressMail(user.email, user.name, link(`/verify/${token}`)));
 }
 
 /** Uses up a confirmation link; false when it is unknown, used or expired. */
@@ -84,7 +86,7 @@ export async function requestPasswordReset(request: Request, values: Record<stri
   const user = await findUserByEmail(db, email);
   if (!user || user.disabledAt) return;
   const token = await issueToken(db, user.id, "reset-password");
-  await sendMail(resetPasswordMail(user.email, user.name, link(`/reset/${token}`)));
+  sendInBackground(resetPasswordMail(user.email, user.name, link(`/reset/${token}`)));
 }
 
 /**
@@ -95,17 +97,20 @@ export async function completePasswordReset(request: Request, token: string, val
   const { password } = parse(z.object({ password: newPasswordField }), values);
   const db = await getDb();
   await enforceLimits(db, "reset", { address: address(request) });
-  const row = await consumeToken(db, token, "reset-password");
-  if (!row) throw new AppError(400, "expired", "This reset link has expired or was used already. Ask for a new one.");
-  const user = await getUserById(db, row.userId);
-  if (!user || user.disabledAt) throw new AppError(404, "not-found", "This reset link has expired or was used already.");
-  if (passwordMatchesIdentity(password, user)) {
+  const expired = () => new AppError(400, "expired", "This reset link has expired or was used already. Ask for a new one.");
+  // Checked before the link is used up, so a refused password does not cost the member their link.
+  const pending = await peekToken(db, token, "reset-password");
+  const owner = pending ? await getUserById(db, pending.userId) : null;
+  if (!owner || owner.disabledAt) throw expired();
+  if (passwordMatchesIdentity(password, owner)) {
     throw new AppError(400, "invalid", "Some fields need attention.", { password: identityProblem });
   }
-  await setPassword(db, user.id, password);
-  await markEmailVerified(db, user.id);
-  await revokeUserSessions(db, user.id);
-  await sendMail(passwordChangedMail(user.email, user.name, link("/reset")));
+  const row = await consumeToken(db, token, "reset-password");
+  if (!row) throw expired();
+  await setPassword(db, row.userId, password);
+  await markEmailVerified(db, row.userId);
+  await revokeUserSessions(db, row.userId);
+  await sendMail(passwordChangedMail(owner.email, owner.name, link("/reset")));
 }
 
 /** A signed-in member changes their password; every other session of the account ends. */

@@ -67,6 +67,7 @@ export function authenticator(): Authenticator<Signed> {
     settings.GITHUB_BASE_URL,
     settings.GITHUB_API_URL,
     settings.GITHUB_CLIENT_ID,
+    settings.GITHUB_CLIENT_SECRET,
   ].join("|");
   if (cached?.key !== key) {
     const instance = new Authenticator<Signed>();
