@@ -1,3 +1,4 @@
+import { createHash } from "node:crypto";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { startAppServer } from "../support/app-server";
 import { useTestDatabase } from "../support/base-db";
@@ -132,6 +133,43 @@ describe("sign-up, confirmation and sign-in", () => {
     // Only the newest link works.
     expect((await client.post(linkPath(first, /https?:\/\/\S+\/verify\/[\w-]+/), {})).status).toBe(200);
     expect((await client.post(linkPath(second, /https?:\/\/\S+\/verify\/[\w-]+/), {})).status).toBe(302);
+  });
+});
+
+describe("mailed links", () => {
+  it("stop working once their time is up", async () => {
+    const email = uniqueEmail("late");
+    const client = new TestClient(app.origin);
+    await client.post("/signup", { name: "Late Reader", email, password: "opened the mail too late" });
+    const path = linkPath(await latestMail(email, /Confirm/), /https?:\/\/\S+\/verify\/[\w-]+/);
+    const { getDb } = await import("~/db/client.server");
+    const { userTokens, users } = await import("~/db/schema");
+    const { eq } = await import("drizzle-orm");
+    const db = await getDb();
+    const [user] = await db.select().from(users).where(eq(users.email, email));
+    // As if the day had passed.
+    await db
+      .update(userTokens)
+      .set({ expiresAt: new Date(Date.now() - 1000) })
+      .where(eq(userTokens.userId, user.id));
+    const late = await client.post(path, {});
+    expect(late.status).toBe(200);
+    expect(await late.text()).toContain("expired or was used already");
+    const [after] = await db.select().from(users).where(eq(users.email, email));
+    expect(after.emailVerifiedAt).toBeNull();
+  });
+
+  it("are stored only as hashes", async () => {
+    const email = uniqueEmail("hashed");
+    await new TestClient(app.origin).post("/signup", { name: "Hash Check", email, password: "nothing in plain text" });
+    const token = linkPath(await latestMail(email, /Confirm/), /https?:\/\/\S+\/verify\/[\w-]+/)
+      .split("/")
+      .at(-1)!;
+    const { getDb } = await import("~/db/client.server");
+    const { userTokens } = await import("~/db/schema");
+    const rows = await (await getDb()).select().from(userTokens);
+    expect(rows.some((r) => r.tokenHash === token)).toBe(false);
+    expect(rows.some((r) => r.tokenHash === createHash("sha256").update(token).digest("hex"))).toBe(true);
   });
 });
 

@@ -192,6 +192,20 @@ describe("abuse limits", () => {
     expect(await signup.text()).toContain("Too many sign-ups");
   });
 
+  it("counts in fixed windows that start again once they have passed", async () => {
+    const { getDb } = await import("~/db/client.server");
+    const { hit } = await import("~/models/rate-limit.server");
+    const db = await getDb();
+    const key = `test:window:${Date.now()}`;
+    expect((await hit(db, key, 2, 300)).allowed).toBe(true);
+    expect((await hit(db, key, 2, 300)).allowed).toBe(true);
+    const third = await hit(db, key, 2, 300);
+    expect(third.allowed).toBe(false);
+    expect(third.retryAfter).toBe(1);
+    await new Promise((r) => setTimeout(r, 350));
+    expect((await hit(db, key, 2, 300)).allowed).toBe(true);
+  });
+
   it("limits attempts at confirmation links per client address", async () => {
     const client = new TestClient(app.origin);
     let last = 0;
