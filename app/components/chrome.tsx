@@ -68,10 +68,11 @@ export function SiteHeader() {
     <header className="no-print bg-spruce-800 text-paper">
       <div className="mx-auto flex max-w-6xl flex-wrap items-center gap-x-6 gap-y-2 px-6 py-3">
         <Link to="/" className="flex items-center gap-3">
-          <LogoMark />
+          <LogoMark className="h-9 w-9 rounded-lg bg-paper p-0.5" />
           <span className="font-serif text-2xl font-semibold tracking-tight">Torqueleaf</span>
         </Link>
-        <nav aria-label="Main" className="flex flex-1 flex-wrap items-center gap-1">
+        {/* On a phone the menu takes its own row under the name, so nothing stacks beside the logo. */}
+        <nav aria-label="Main" className="order-last flex w-full flex-wrap items-center gap-1 sm:order-none sm:w-auto sm:flex-1">
           <NavLink to="/" end className={navClass}>
             Library
           </NavLink>
@@ -79,7 +80,7 @@ export function SiteHeader() {
             Circuit planner
           </NavLink>
         </nav>
-        <div className="flex items-center gap-2 text-sm">
+        <div className="ml-auto flex items-center gap-2 text-sm sm:ml-0">
           {root?.user ? (
             <UserMenu user={root.user} permissions={root.permissions} />
           ) : (
