@@ -1,6 +1,7 @@
-import { Form, Link } from "react-router";
+import { Form } from "react-router";
 import { Notice, SubmitButton } from "~/components/auth-form";
 import { ROLES } from "~/utils/vocab";
+import { Pager } from "~/components/pager";
 import type { Route } from "./+types/admin.users";
 import { usersAction, usersLoader } from "./admin.users.server";
 
@@ -139,21 +140,7 @@ export default function AdminUsers({ loaderData, actionData }: Route.ComponentPr
         </table>
         {users.length === 0 ? <p className="p-6 text-center text-ink-soft">No accounts match.</p> : null}
       </div>
-      {pages > 1 ? (
-        <nav aria-label="Pages" className="mt-4 flex items-center gap-2 text-sm">
-          {page > 1 ? (
-            <Link to={pageLink(page - 1)} className="rounded-md border border-rule px-3 py-1.5">
-              Previous
-            </Link>
-          ) : null}
-          <span className="text-ink-soft">{`Page ${page} of ${pages}`}</span>
-          {page < pages ? (
-            <Link to={pageLink(page + 1)} className="rounded-md border border-rule px-3 py-1.5">
-              Next
-            </Link>
-          ) : null}
-        </nav>
-      ) : null}
+      <Pager page={page} pages={pages} href={pageLink} className="mt-4" />
     </div>
   );
 }

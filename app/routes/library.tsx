@@ -6,6 +6,7 @@ import { getDb } from "~/db/client.server";
 import { getCatalogue, yearsLabel } from "~/models/catalogue.server";
 import { listPublishedGuides, parseLibraryQuery } from "~/models/library.server";
 import { CATEGORIES, CATEGORY_LABELS, DIFFICULTY_LABELS, DRIVETRAINS, POWERTRAIN_LABELS, POWERTRAINS } from "~/utils/vocab";
+import { Pager } from "~/components/pager";
 import type { Route } from "./+types/library";
 
 export const meta: Route.MetaFunction = () => [
@@ -236,23 +237,7 @@ export default function Library({ loaderData }: Route.ComponentProps) {
               </li>
             ))}
           </ul>
-          {pages > 1 ? (
-            <nav aria-label="Pages" className="mt-6 flex items-center gap-2 text-sm">
-              {page > 1 ? (
-                <Link to={pageLink(page - 1)} className="rounded-md border border-rule px-3 py-1.5">
-                  Previous
-                </Link>
-              ) : null}
-              <span className="text-ink-soft">
-                Page {page} of {pages}
-              </span>
-              {page < pages ? (
-                <Link to={pageLink(page + 1)} className="rounded-md border border-rule px-3 py-1.5">
-                  Next
-                </Link>
-              ) : null}
-            </nav>
-          ) : null}
+          <Pager page={page} pages={pages} href={pageLink} className="mt-6" />
           <div className="mt-8">
             <SafetyNotice compact />
           </div>
