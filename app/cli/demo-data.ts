@@ -74,7 +74,7 @@ export async function loadDemoData(db: Db, storage: Storage, log: (line: string)
     if (!parsed.success) {
       throw new Error(`demo guide ${sample.slug} is invalid: ${JSON.stringify(fieldErrors(parsed.error))}`);
     }
-    await saveDraft(db, created.id, author.id, parsed.data);
+    await saveDraft(db, created.id, parsed.data);
     if (sample.state !== "draft") {
       const { revisionId } = await submitRevision(db, created.id, author.id, sample.changeSummary);
       if (sample.state === "published") {

@@ -1,4 +1,4 @@
-import { and, asc, eq, inArray, like, sql } from "drizzle-orm";
+import { asc, eq, inArray, like, sql } from "drizzle-orm";
 import type { Db } from "~/db/client.server";
 import { callouts, fitment, guides, media, parts, revisions, stepPhotos, steps, tools, variants } from "~/db/schema";
 import type { Callout } from "~/engine/callouts";
@@ -40,7 +40,6 @@ export async function runBatch(db: Db, queries: Parameters<Db["batch"]>[0]) {
   try {
     return await db.batch(queries);
   } catch (error) {
-    if (process.env.DEBUG_DB) console.log(error);
     throw fromDbError(error) ?? error;
   }
 }
@@ -118,7 +117,7 @@ export function rulesInput(loaded: Pick<LoadedRevision, "steps" | "fitment">) {
  * by one; a trigger refuses it when another save came first or the revision is already submitted,
  * and the whole batch rolls back.
  */
-export async function saveDraft(db: Db, guideId: number, actorId: number, input: DraftInput) {
+export async function saveDraft(db: Db, guideId: number, input: DraftInput) {
   const guide = await getGuideById(db, guideId);
   if (!guide?.workingRevisionId) throw notFound("This guide");
   const revisionId = guide.workingRevisionId;
@@ -194,7 +193,7 @@ export async function saveDraft(db: Db, guideId: number, actorId: number, input:
   await runBatch(db, queries as unknown as Parameters<Db["batch"]>[0]);
 
   const findings = runSafetyRules({
-    steps: input.steps.map((s) => ({ ...s, callouts: s.callouts })),
+    steps: input.steps,
     fitmentPowertrains: [
       ...new Set(
         input.fitment
@@ -204,7 +203,7 @@ export async function saveDraft(db: Db, guideId: number, actorId: number, input:
       ),
     ],
   });
-  return { version: input.version + 1, revisionId, findings, actorId };
+  return { version: input.version + 1, revisionId, findings };
 }
 
 /** What a revision still lacks before an editor can look at it (the API's 422 `missing`). */
@@ -216,16 +215,4 @@ export function missingForSubmit(loaded: LoadedRevision): string[] {
   if (loaded.fitment.length === 0) missing.push("fitment");
   if (loaded.steps.some((s) => s.photos.some((p) => !p.alt.trim()))) missing.push("steps.photos.alt");
   return missing;
-}
-
-export async function listGuidesByAuthor(db: Db, authorId: number) {
-  return db.query.guides.findMany({
-    where: eq(guides.authorId, authorId),
-    orderBy: (g, { desc }) => desc(g.updatedAt),
-    with: { workingRevision: true },
-  });
-}
-
-export async function findGuideBySlug(db: Db, slug: string) {
-  return db.query.guides.findFirst({ where: and(eq(guides.slug, slug)) });
 }

@@ -1,4 +1,3 @@
-import { inArray } from "drizzle-orm";
 import type { Db } from "~/db/client.server";
 import { type MediaVariant, media } from "~/db/schema";
 import { processImage } from "~/services/images.server";
@@ -16,8 +15,4 @@ export async function uploadPhoto(db: Db, storage: Storage, ownerId: number, fil
 
 export function publicVariants(storage: Pick<Storage, "publicUrl">, variants: MediaVariant[]) {
   return variants.map((v) => ({ width: v.width, format: v.format, url: storage.publicUrl(v.key) }));
-}
-
-export async function mediaByIds(db: Db, ids: number[]) {
-  return ids.length ? db.select().from(media).where(inArray(media.id, ids)) : [];
 }

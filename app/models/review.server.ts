@@ -1,4 +1,4 @@
-import { and, count, eq, inArray, max, sql } from "drizzle-orm";
+import { and, count, eq, max, sql } from "drizzle-orm";
 import type { Db } from "~/db/client.server";
 import { callouts, cautionSignoffs, findings, guides, reviews, revisions, steps } from "~/db/schema";
 import { runSafetyRules } from "~/engine/rules";
@@ -245,9 +245,4 @@ export async function reviewQueue(db: Db) {
     submittedAt: r.submittedAt,
     blocking: r.findings.filter((f) => f.severity === "blocking").length,
   }));
-}
-
-export async function findingsFor(db: Db, revisionIds: number[]) {
-  if (!revisionIds.length) return [];
-  return db.select().from(findings).where(inArray(findings.revisionId, revisionIds));
 }

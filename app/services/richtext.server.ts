@@ -33,5 +33,3 @@ export function renderBody(content: unknown): { html: string; text: string } {
   const text = node.textBetween(0, node.content.size, "\n", " ").replace(/\s+/g, " ").trim();
   return { html, text };
 }
-
-export const EMPTY_BODY = { type: "doc", content: [{ type: "paragraph" }] } as const;
