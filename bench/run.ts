@@ -28,7 +28,9 @@ const q = (s: string) => parseLibraryQuery(new URLSearchParams(s));
 await time("library: no filters", 300, () => listPublishedGuides(db, q("")));
 await time("library: powertrain=hybrid", 300, () => listPublishedGuides(db, q("powertrain=hybrid")));
 await time("library: q=relay fuse", 300, () => listPublishedGuides(db, q("q=relay+fuse")));
-const page = await time("guide page model (stored HTML)", 300, () => getPublishedGuide(db, storage, "kestrel-hood-auxiliary-lamps"));
+const page = await time("guide page model (stored HTML)", 300, () =>
+  getPublishedGuide(db, storage, "kestrel-hood-auxiliary-lamps"),
+);
 
 const guide = await getPublishedGuide(db, storage, "kestrel-hood-auxiliary-lamps");
 const { loadRevision } = await import("~/models/guides.server");
@@ -38,6 +40,8 @@ const row = await db.query.guides.findFirst({ where: eq(guides.slug, "kestrel-ho
 const loaded = row?.publishedRevisionId ? await loadRevision(db, row.publishedRevisionId) : null;
 const bodies = loaded?.steps.map((s) => s.body) ?? [];
 const render = await time(`render ${bodies.length} step bodies per request`, 300, () => bodies.map((b) => renderBody(b)));
-console.log(`\nrendering per request would add ${(render / page).toFixed(2)} × the page model's own time (${guide?.steps.length} steps)`);
+console.log(
+  `\nrendering per request would add ${(render / page).toFixed(2)} × the page model's own time (${guide?.steps.length} steps)`,
+);
 
 await fakes.stop();

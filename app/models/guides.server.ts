@@ -1,4 +1,5 @@
 import { asc, eq, inArray, like, sql } from "drizzle-orm";
+import { batch } from "~/db/batch.server";
 import type { Db } from "~/db/client.server";
 import { callouts, fitment, guides, media, parts, revisions, stepPhotos, steps, tools, variants } from "~/db/schema";
 import type { Callout } from "~/engine/callouts";
@@ -36,9 +37,9 @@ async function uniqueSlug(db: Db, title: string) {
 }
 
 /** Runs a batch and turns the database's concurrency and freeze refusals into 409s. */
-export async function runBatch(db: Db, queries: Parameters<Db["batch"]>[0]) {
+export async function runBatch(db: Db, queries: Parameters<typeof batch>[1]) {
   try {
-    return await db.batch(queries);
+    return await batch(db, queries);
   } catch (error) {
     throw fromDbError(error) ?? error;
   }
@@ -190,7 +191,7 @@ export async function saveDraft(db: Db, guideId: number, input: DraftInput) {
     ...input.parts.map((part, position) => db.insert(parts).values({ revisionId, position, ...part })),
     ...input.tools.map((tool, position) => db.insert(tools).values({ revisionId, position, ...tool })),
   ];
-  await runBatch(db, queries as unknown as Parameters<Db["batch"]>[0]);
+  await runBatch(db, queries);
 
   const findings = runSafetyRules({
     steps: input.steps,

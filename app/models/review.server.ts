@@ -1,4 +1,5 @@
 import { and, count, eq, max, sql } from "drizzle-orm";
+import type { BatchQuery } from "~/db/batch.server";
 import type { Db } from "~/db/client.server";
 import { callouts, cautionSignoffs, findings, guides, reviews, revisions, steps } from "~/db/schema";
 import { runSafetyRules } from "~/engine/rules";
@@ -6,10 +7,8 @@ import { AppError, forbidden, notFound } from "~/utils/errors";
 import { auditInsert } from "./audit.server";
 import { getGuideById, loadRevision, missingForSubmit, rulesInput, runBatch } from "./guides.server";
 
-type BatchItem = Parameters<Db["batch"]>[0][number];
-
 /** Statements that copy a revision into a new draft (steps, callouts, photos, fitment, parts, tools). */
-function copyRevisionQueries(db: Db, fromId: number, guideId: number, number: number, actorId: number): BatchItem[] {
+function copyRevisionQueries(db: Db, fromId: number, guideId: number, number: number, actorId: number): BatchQuery[] {
   const newId = sql`(SELECT id FROM revisions WHERE guide_id = ${guideId} AND number = ${number})`;
   return [
     db.run(sql`INSERT INTO revisions (guide_id, number, state, version, title, summary, category, difficulty, minutes, created_by_id)
@@ -52,7 +51,7 @@ export async function startNextRevision(db: Db, guideId: number, actorId: number
   if (guide.workingRevisionId) return guide.workingRevisionId;
   if (!guide.publishedRevisionId) throw new AppError(409, "wrong-state", "This guide has no revision to continue from.");
   const number = await nextRevisionNumber(db, guideId);
-  await runBatch(db, copyRevisionQueries(db, guide.publishedRevisionId, guideId, number, actorId) as never);
+  await runBatch(db, copyRevisionQueries(db, guide.publishedRevisionId, guideId, number, actorId));
   return (await getGuideById(db, guideId))?.workingRevisionId ?? null;
 }
 
@@ -94,7 +93,7 @@ export async function submitRevision(db: Db, guideId: number, actorId: number, c
       reason: changeSummary,
       data: { findings: found.length },
     }),
-  ] as never);
+  ]);
   return { state: "in-review" as const, revisionId };
 }
 
@@ -154,7 +153,7 @@ export async function decideReview(db: Db, revisionId: number, editorId: number,
         subjectId: finding.id,
         reason: decision.note,
       }),
-    ] as never);
+    ]);
     return { ok: true };
   }
 
@@ -165,7 +164,7 @@ export async function decideReview(db: Db, revisionId: number, editorId: number,
     await runBatch(db, [
       db.insert(cautionSignoffs).values({ calloutId: caution.id, editorId }),
       auditInsert(db, { actorId: editorId, action: "caution.sign-off", subjectType: "callout", subjectId: caution.id }),
-    ] as never);
+    ]);
     return { ok: true };
   }
 
@@ -188,7 +187,7 @@ export async function decideReview(db: Db, revisionId: number, editorId: number,
         subjectId: revisionId,
         reason: decision.note,
       }),
-    ] as never);
+    ]);
     return { ok: true };
   }
 
@@ -228,7 +227,7 @@ export async function decideReview(db: Db, revisionId: number, editorId: number,
       .where(eq(guides.id, guide.id)),
     db.insert(reviews).values({ revisionId, editorId, decision: "approve" }),
     auditInsert(db, { actorId: editorId, action: "revision.approve-publish", subjectType: "revision", subjectId: revisionId }),
-  ] as never);
+  ]);
   return { ok: true };
 }
 

@@ -1,5 +1,6 @@
 import { randomBytes } from "node:crypto";
 import { and, eq, gt, isNull } from "drizzle-orm";
+import { batch } from "~/db/batch.server";
 import type { Db } from "~/db/client.server";
 import { type TOKEN_KINDS, userTokens } from "~/db/schema";
 import { hashToken } from "./sessions.server";
@@ -25,7 +26,7 @@ export const TOKEN_TTL: Record<TokenKind, number> = {
 export async function issueToken(db: Db, userId: number, kind: TokenKind, data?: Record<string, unknown>) {
   const token = randomBytes(32).toString("base64url");
   const now = new Date();
-  await db.batch([
+  await batch(db, [
     db
       .update(userTokens)
       .set({ usedAt: now })

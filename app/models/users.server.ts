@@ -1,4 +1,5 @@
 import { and, asc, count, eq, or, sql } from "drizzle-orm";
+import { batch } from "~/db/batch.server";
 import type { Db } from "~/db/client.server";
 import { oauthAccounts, users } from "~/db/schema";
 import { hashPassword } from "~/services/password.server";
@@ -70,7 +71,7 @@ export async function linkOAuthAccount(
   db: Db,
   link: { userId: number; provider: string; providerUserId: string; email: string | null; login?: string },
 ) {
-  await db.batch([
+  await batch(db, [
     db
       .insert(oauthAccounts)
       .values({ userId: link.userId, provider: link.provider, providerUserId: link.providerUserId, email: link.email }),
@@ -98,7 +99,7 @@ export async function acceptContributorTerms(db: Db, userId: number) {
   const user = await getUserById(db, userId);
   if (!user) throw new AppError(404, "not-found", "This account does not exist.");
   if (user.role !== "reader") return user;
-  await db.batch([
+  await batch(db, [
     db.update(users).set({ role: "author", termsAcceptedAt: new Date() }).where(eq(users.id, userId)),
     auditInsert(db, {
       actorId: userId,
@@ -156,7 +157,7 @@ async function targetOf(db: Db, actorId: number, userId: number) {
 export async function changeRole(db: Db, actorId: number, userId: number, role: Role, reason: string) {
   const user = await targetOf(db, actorId, userId);
   if (user.role === role) return user;
-  await db.batch([
+  await batch(db, [
     db
       .update(users)
       .set({ role, termsAcceptedAt: role !== "reader" ? (user.termsAcceptedAt ?? new Date()) : user.termsAcceptedAt })
@@ -177,7 +178,7 @@ export async function changeRole(db: Db, actorId: number, userId: number, role: 
 export async function setDisabled(db: Db, actorId: number, userId: number, disabled: boolean, reason: string) {
   const user = await targetOf(db, actorId, userId);
   if (!!user.disabledAt === disabled) return user;
-  await db.batch([
+  await batch(db, [
     db
       .update(users)
       .set({ disabledAt: disabled ? new Date() : null })

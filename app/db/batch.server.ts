@@ -1,0 +1,16 @@
+import type { BatchItem } from "drizzle-orm/batch";
+import type { Db } from "./client.server";
+
+/** One statement of a batch: any insert, update, delete, select or raw `db.run` built on this database. */
+export type BatchQuery = BatchItem<"sqlite">;
+
+/**
+ * Runs statements as one atomic unit (libSQL runs a batch in a single transaction, so either all
+ * of them take effect or none). Takes a plain array, so callers can build it with spreads and
+ * conditionals; drizzle's own signature wants a non-empty tuple, which is the one cast kept here.
+ */
+export async function batch(db: Db, queries: readonly (BatchQuery | false | null | undefined)[]): Promise<unknown[]> {
+  const items = queries.filter((q): q is BatchQuery => !!q);
+  if (items.length === 0) return [];
+  return db.batch(items as [BatchQuery, ...BatchQuery[]]);
+}
