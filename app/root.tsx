@@ -1,11 +1,13 @@
-import { isRouteErrorResponse, Links, Meta, Outlet, Scripts, ScrollRestoration, useRouteLoaderData } from "react-router";
+import { data, isRouteErrorResponse, Links, Meta, Outlet, Scripts, ScrollRestoration, useRouteLoaderData } from "react-router";
 import type { Route } from "./+types/root";
 import "./app.css";
 import { SiteFooter, SiteHeader } from "./components/chrome";
 import { ErrorPage } from "./components/error-page";
+import { FlashBanner } from "./components/form";
 import { crossSiteMiddleware } from "./services/auth/guards.server";
 import { getUser, sessionMiddleware } from "./services/auth/session.server";
 import { env } from "./utils/env.server";
+import { takeFlash } from "./utils/forms.server";
 import { permissionsFor } from "./utils/permissions";
 
 export const links: Route.LinksFunction = () => [{ rel: "icon", href: "/favicon.svg", type: "image/svg+xml" }];
@@ -19,14 +21,19 @@ export const middleware: Route.MiddlewareFunction[] = [crossSiteMiddleware, sess
 /** The signed-in member and what they may do, so screens can hide what they cannot use (the server checks again). */
 export async function loader(args: Route.LoaderArgs) {
   const user = await getUser(args);
-  return {
-    user: user ? { id: user.id, name: user.name, email: user.email, role: user.role } : null,
-    permissions: user ? [...permissionsFor(user.role)] : [],
-    devInbox: env().LOCAL_FAKES,
-  };
+  const { flash, headers } = await takeFlash(args.request);
+  return data(
+    {
+      user: user ? { id: user.id, name: user.name, email: user.email, role: user.role } : null,
+      permissions: user ? [...permissionsFor(user.role)] : [],
+      devInbox: env().LOCAL_FAKES,
+      flash,
+    },
+    { headers },
+  );
 }
 
-export type RootData = Awaited<ReturnType<typeof loader>>;
+export type RootData = Route.ComponentProps["loaderData"];
 
 export function useRootData() {
   return useRouteLoaderData<RootData>("root");
@@ -51,11 +58,12 @@ export function Layout({ children }: { children: React.ReactNode }) {
   );
 }
 
-export default function App() {
+export default function App({ loaderData }: Route.ComponentProps) {
   return (
     <>
       <SiteHeader />
       <main className="flex-1">
+        {loaderData.flash ? <FlashBanner key={loaderData.flash.text} flash={loaderData.flash} /> : null}
         <Outlet />
       </main>
       <SiteFooter />

@@ -1,6 +1,7 @@
 import { z } from "zod";
 import { checkCircuit, type CircuitResult } from "./circuit";
-import { circuitCalloutExtraShape, circuitInputShape, fieldErrors, loadExclusivity, type FieldErrors } from "./circuit-input";
+import { fieldErrors } from "~/utils/validation";
+import { circuitCalloutExtraShape, circuitInputShape, loadExclusivity, type FieldErrors } from "./circuit-input";
 import {
   METRIC_SIZES,
   PROPERTY_CLASSES,

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { fieldErrors } from "~/utils/validation";
 import { AWG_SIZES, INSULATION_RATINGS_C, MM2_SIZES } from "./wire";
 
 /**
@@ -90,16 +91,6 @@ export type CircuitInput = z.output<typeof circuitInputSchema>;
 export type CircuitInputRaw = z.input<typeof circuitInputSchema>;
 
 export type FieldErrors = Record<string, string>;
-
-/** The first message per field is enough for a form; "input" stands for the whole body. */
-export function fieldErrors(error: z.ZodError): FieldErrors {
-  const fields: FieldErrors = {};
-  for (const issue of error.issues) {
-    const key = issue.path.length > 0 ? issue.path.map(String).join(".") : "input";
-    fields[key] ??= issue.message;
-  }
-  return fields;
-}
 
 export function parseCircuitInput(raw: unknown): { ok: true; value: CircuitInput } | { ok: false; fields: FieldErrors } {
   const parsed = circuitInputSchema.safeParse(raw);

@@ -90,13 +90,3 @@ export const draftInputSchema = guideMetaSchema
 export type GuideMetaInput = z.infer<typeof guideMetaSchema>;
 export type DraftInput = z.infer<typeof draftInputSchema>;
 export type StepInput = z.infer<typeof stepInputSchema>;
-
-/** zod issues → `{ "steps.2.title": "Give the step a title" }`, the API's `fields`. */
-export function fieldErrors(error: z.ZodError): Record<string, string> {
-  const fields: Record<string, string> = {};
-  for (const issue of error.issues) {
-    const key = issue.path.join(".") || "_";
-    fields[key] ??= issue.message;
-  }
-  return fields;
-}

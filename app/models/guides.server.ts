@@ -4,7 +4,7 @@ import type { Db } from "~/db/client.server";
 import { callouts, fitment, guides, media, parts, revisions, stepPhotos, steps, tools, variants } from "~/db/schema";
 import type { Callout } from "~/engine/callouts";
 import { runSafetyRules } from "~/engine/rules";
-import { RichTextError, renderBody } from "~/services/richtext.server";
+import { renderBody } from "~/services/richtext.server";
 import { AppError, fromDbError, notFound } from "~/utils/errors";
 import type { Powertrain } from "~/utils/vocab";
 import { auditInsert } from "./audit.server";
@@ -128,7 +128,7 @@ export async function saveDraft(db: Db, guideId: number, input: DraftInput) {
     try {
       return renderBody(step.body);
     } catch (error) {
-      if (!(error instanceof RichTextError)) throw error;
+      if (!(error instanceof AppError)) throw error;
       fields[`steps.${i}.body`] = error.message;
       return { html: "", text: "" };
     }

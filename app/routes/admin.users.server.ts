@@ -1,10 +1,8 @@
 import { z } from "zod";
 import { getDb } from "~/db/client.server";
 import { changeRole, listUsers, setDisabled } from "~/models/users.server";
-import { fieldErrors, formValues } from "~/services/auth/fields.server";
-import { runForm } from "~/services/auth/form-result.server";
 import { requirePermission } from "~/services/auth/guards.server";
-import { AppError } from "~/utils/errors";
+import { handleForm, redirectWithFlash } from "~/utils/forms.server";
 import { ROLES } from "~/utils/vocab";
 
 type Args = { request: Request; context?: unknown };
@@ -40,28 +38,20 @@ const intentSchema = z.discriminatedUnion(
   { error: "Choose one of the actions on this page." },
 );
 
-/** Role changes and disabling, each written to the audit log with who, when and why. */
+/** Role changes and disabling, each written to the audit log with who, when and why; back to the same list after. */
 export async function usersAction(args: Args) {
   const admin = await requirePermission(args, "manage:users");
-  const values = formValues(await args.request.formData());
-  return runForm(values, async () => {
-    const parsed = intentSchema.safeParse(values);
-    if (!parsed.success) throw new AppError(400, "invalid", "Some fields need attention.", fieldErrors(parsed.error));
-    const input = parsed.data;
+  const back = new URL(args.request.url);
+  const here = back.pathname + back.search;
+  return handleForm(args.request, intentSchema, async (input) => {
     const db = await getDb();
     if (input.intent === "set-role") {
       const user = await changeRole(db, admin.id, input.userId, input.role, input.reason);
-      return {
-        ok: true as const,
-        userId: input.userId,
-        message: `${user.name} is now ${/^[aeiou]/.test(input.role) ? "an" : "a"} ${input.role}.`,
-      };
+      const article = /^[aeiou]/.test(input.role) ? "an" : "a";
+      return redirectWithFlash(here, { tone: "success", text: `${user.name} is now ${article} ${input.role}.` });
     }
     const user = await setDisabled(db, admin.id, input.userId, input.intent === "disable", input.reason);
-    return {
-      ok: true as const,
-      userId: input.userId,
-      message: input.intent === "disable" ? `${user.name} can no longer sign in.` : `${user.name} can sign in again.`,
-    };
+    const text = input.intent === "disable" ? `${user.name} can no longer sign in.` : `${user.name} can sign in again.`;
+    return redirectWithFlash(here, { tone: "success", text });
   });
 }

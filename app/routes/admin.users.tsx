@@ -1,5 +1,6 @@
 import { Form } from "react-router";
-import { Notice, SubmitButton } from "~/components/auth-form";
+import { Notice, SubmitButton } from "~/components/form";
+import { failureOf } from "~/utils/forms";
 import { ROLES } from "~/utils/vocab";
 import { Pager } from "~/components/pager";
 import type { Route } from "./+types/admin.users";
@@ -15,7 +16,7 @@ const input = "rounded-md border border-rule bg-paper px-3 py-2 text-sm";
 
 export default function AdminUsers({ loaderData, actionData }: Route.ComponentProps) {
   const { users, total, page, pageSize, query, adminId } = loaderData;
-  const failure = actionData && !actionData.ok ? actionData : null;
+  const failure = failureOf(actionData);
   const pages = Math.max(1, Math.ceil(total / pageSize));
   const pageLink = (n: number) => {
     const params = new URLSearchParams();
@@ -52,10 +53,7 @@ export default function AdminUsers({ loaderData, actionData }: Route.ComponentPr
         <SubmitButton tone="quiet">Show</SubmitButton>
       </Form>
 
-      <div className="mt-6">
-        {actionData?.ok ? <Notice tone="success">{actionData.message}</Notice> : null}
-        {failure ? <Notice tone="error">{failure.message}</Notice> : null}
-      </div>
+      <div className="mt-6">{failure ? <Notice tone="error">{failure.message}</Notice> : null}</div>
       <p className="text-sm text-ink-soft">{`${total} ${total === 1 ? "account" : "accounts"}`}</p>
       <div className="mt-3 overflow-x-auto rounded-xl border border-rule bg-white shadow-sm">
         <table className="w-full text-left text-sm">

@@ -1,12 +1,13 @@
 import { getDb } from "~/db/client.server";
 import { getPublishedGuide } from "~/models/library.server";
 import { getStorage } from "~/services/storage.server";
-import { apiError } from "~/utils/http.server";
+import { AppError } from "~/utils/errors";
+import { apiHandler } from "~/utils/http.server";
 import type { Route } from "./+types/api.guide";
 
-export async function loader({ params }: Route.LoaderArgs) {
+export const loader = apiHandler(async ({ params }: Route.LoaderArgs) => {
   const guide = await getPublishedGuide(await getDb(), getStorage(), params.slug);
-  if (!guide) return apiError(404, "not-found", `No published guide is called "${params.slug}".`);
+  if (!guide) throw new AppError(404, "not-found", `No published guide is called "${params.slug}".`);
   const { id: _id, ...rest } = guide;
   return Response.json({
     ...rest,
@@ -15,4 +16,4 @@ export async function loader({ params }: Route.LoaderArgs) {
       callouts: callouts.map(({ result, ...callout }) => ({ ...callout, computed: result })),
     })),
   });
-}
+});

@@ -1,6 +1,7 @@
 import { Form, redirect } from "react-router";
 import { z } from "zod";
-import { AuthCard, SubmitButton } from "~/components/auth-form";
+import { AuthCard } from "~/components/auth-form";
+import { SubmitButton } from "~/components/form";
 import { getDb } from "~/db/client.server";
 import { cancelLink, confirmLink, pendingLink } from "~/services/auth/github-accounts.server";
 import { expiredCookie, linkCookie, returnToCookie } from "~/services/auth/github-flow.server";

@@ -1,9 +1,13 @@
-import { data, Form, Link, redirect } from "react-router";
-import { Notice, SubmitButton } from "~/components/auth-form";
+import { Form, Link, redirect } from "react-router";
+import { z } from "zod";
+import { Notice, SubmitButton } from "~/components/form";
 import { getDb } from "~/db/client.server";
 import { acceptContributorTerms } from "~/models/users.server";
 import { requireUser } from "~/services/auth/guards.server";
 import { getUser } from "~/services/auth/session.server";
+import { AppError, invalid } from "~/utils/errors";
+import { failureOf } from "~/utils/forms";
+import { handleForm } from "~/utils/forms.server";
 import type { Route } from "./+types/contributor-terms";
 
 export const meta: Route.MetaFunction = () => [
@@ -18,17 +22,18 @@ export async function loader(args: Route.LoaderArgs) {
 }
 
 /** A reader who ticks the box becomes an author; editors and admins are appointed, never self-made. */
+const termsForm = z.object({ agree: z.string().max(10).optional() });
+
 export async function action(args: Route.ActionArgs) {
   const user = await requireUser(args);
-  const form = await args.request.formData();
-  if (user.role !== "reader") {
-    return data({ message: "You already write for Torqueleaf; there is nothing more to accept." }, { status: 409 });
-  }
-  if (form.get("agree") !== "yes") {
-    return data({ message: "Tick the box to accept the terms.", field: "agree" }, { status: 400 });
-  }
-  await acceptContributorTerms(await getDb(), user.id);
-  return redirect("/contributor-terms?welcome=1");
+  return handleForm(args.request, termsForm, async (input) => {
+    if (user.role !== "reader") {
+      throw new AppError(409, "wrong-state", "You already write for Torqueleaf; there is nothing more to accept.");
+    }
+    if (input.agree !== "yes") throw invalid({ agree: "Tick the box to accept the terms." });
+    await acceptContributorTerms(await getDb(), user.id);
+    return redirect("/contributor-terms?welcome=1");
+  });
 }
 
 const TERMS = [
@@ -59,6 +64,7 @@ const TERMS = [
 ];
 
 export default function ContributorTerms({ loaderData, actionData }: Route.ComponentProps) {
+  const failure = failureOf(actionData);
   return (
     <div className="mx-auto max-w-3xl px-6 py-10">
       <h1 className="font-serif text-4xl font-semibold tracking-tight text-spruce-900">Contributor terms</h1>
@@ -86,14 +92,14 @@ export default function ContributorTerms({ loaderData, actionData }: Route.Compo
           </p>
         ) : loaderData.role === "reader" ? (
           <Form method="post" className="rounded-xl border border-rule bg-white p-5 shadow-sm">
-            {actionData ? <Notice tone="error">{actionData.message}</Notice> : null}
+            {failure ? <Notice tone="error">{failure.fields?.agree ?? failure.message}</Notice> : null}
             <label className="flex items-start gap-3">
               <input
                 type="checkbox"
                 name="agree"
                 value="yes"
                 className="mt-1 accent-spruce-700"
-                aria-invalid={actionData ? true : undefined}
+                aria-invalid={failure?.fields?.agree ? true : undefined}
               />
               <span>I have read the contributor terms and accept them.</span>
             </label>

@@ -7,11 +7,13 @@ import { getPublishedGuide } from "~/models/library.server";
 import { getStorage } from "~/services/storage.server";
 import { formatMinutes } from "~/utils/format";
 import { CATEGORY_LABELS, DIFFICULTY_LABELS, FITMENT_LABELS, type Category, type FitmentStatus } from "~/utils/vocab";
+import { notFound } from "~/utils/errors";
+import { pageErrorResponse } from "~/utils/http.server";
 import type { Route } from "./+types/guide";
 
 export async function loader({ params, request }: Route.LoaderArgs) {
   const guide = await getPublishedGuide(await getDb(), getStorage(), params.slug);
-  if (!guide) throw new Response(`No published guide is called "${params.slug}".`, { status: 404 });
+  if (!guide) throw pageErrorResponse(notFound(`A published guide called "${params.slug}"`));
   return { guide, print: new URL(request.url).searchParams.get("print") === "1" };
 }
 

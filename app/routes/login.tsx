@@ -1,9 +1,11 @@
 import { Form, Link, redirect } from "react-router";
-import { AuthCard, Field, Notice, SubmitButton } from "~/components/auth-form";
+import { AuthCard } from "~/components/auth-form";
+import { Field, Notice, SubmitButton } from "~/components/form";
 import { resendConfirmation } from "~/services/auth/accounts.server";
 import { authenticator } from "~/services/auth/authenticator.server";
-import { formValues } from "~/services/auth/fields.server";
-import { formHeaders, runForm } from "~/services/auth/form-result.server";
+import { z } from "zod";
+import { failureOf } from "~/utils/forms";
+import { formHeaders, handleForm } from "~/utils/forms.server";
 import { redirectIfSignedIn } from "~/services/auth/guards.server";
 import { safeRedirect } from "~/services/auth/redirect";
 import { startSession } from "~/services/auth/session.server";
@@ -42,29 +44,34 @@ export async function loader(args: Route.LoaderArgs) {
 
 export const headers = formHeaders;
 
+/** The two forms on this page; the services check the fields themselves, with their own messages. */
+const loginForm = z.object({
+  intent: z.enum(["sign-in", "resend"]).default("sign-in"),
+  email: z.string().max(1000).default(""),
+  password: z.string().max(1000).default(""),
+  redirectTo: z.string().max(2000).optional(),
+});
+
 export async function action({ request }: Route.ActionArgs) {
-  // The strategy reads the body itself; this copy is for typing back what was sent.
-  const values = formValues(await request.clone().formData());
-  if (values.intent === "resend") {
-    return runForm(values, async () => {
-      await resendConfirmation(request, values);
+  // The password strategy reads the body itself, so the form is read from a copy.
+  return handleForm(request.clone(), loginForm, async (input) => {
+    if (input.intent === "resend") {
+      await resendConfirmation(request, input);
       return {
         ok: true as const,
         resent: true,
         message: "If that address has an account waiting for confirmation, a new link is on its way.",
       };
-    });
-  }
-  return runForm(values, async () => {
+    }
     const signed = await authenticator().authenticate("password", request);
     if (signed.kind !== "password") throw new Error("the password strategy returned another kind of sign-in");
     const cookie = await startSession(request, signed.user.id);
-    return redirect(safeRedirect(values.redirectTo), { headers: { "Set-Cookie": cookie } });
+    return redirect(safeRedirect(input.redirectTo), { headers: { "Set-Cookie": cookie } });
   });
 }
 
 export default function Login({ loaderData, actionData }: Route.ComponentProps) {
-  const failure = actionData && !actionData.ok ? actionData : null;
+  const failure = failureOf(actionData);
   const resent = actionData?.ok ? actionData : null;
   const values = failure?.values ?? {};
   const github = `/auth/github${loaderData.redirectTo ? `?redirectTo=${encodeURIComponent(loaderData.redirectTo)}` : ""}`;

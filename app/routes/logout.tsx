@@ -1,5 +1,6 @@
 import { Form, redirect } from "react-router";
-import { AuthCard, SubmitButton } from "~/components/auth-form";
+import { AuthCard } from "~/components/auth-form";
+import { SubmitButton } from "~/components/form";
 import { endSession, getUser } from "~/services/auth/session.server";
 import type { Route } from "./+types/logout";
 

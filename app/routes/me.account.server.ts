@@ -1,14 +1,14 @@
-import { data, redirect } from "react-router";
+import { redirect } from "react-router";
 import { z } from "zod";
 import { getDb } from "~/db/client.server";
 import { revokeSession, revokeUserSessions } from "~/models/sessions.server";
 import { updateUserName } from "~/models/users.server";
 import { changePassword } from "~/services/auth/accounts.server";
-import { fieldErrors, formValues, nameField } from "~/services/auth/fields.server";
-import { runForm } from "~/services/auth/form-result.server";
+import { nameField } from "~/services/auth/fields.server";
 import { requireUser } from "~/services/auth/guards.server";
 import { expiredSessionCookie, getAuth } from "~/services/auth/session.server";
 import { AppError } from "~/utils/errors";
+import { handleForm, redirectWithFlash } from "~/utils/forms.server";
 
 const intentSchema = z.discriminatedUnion(
   "intent",
@@ -25,32 +25,26 @@ const intentSchema = z.discriminatedUnion(
 export async function accountAction(args: { request: Request; context?: unknown }) {
   await requireUser(args);
   const auth = (await getAuth(args))!;
-  const values = formValues(await args.request.formData());
-  return runForm(values, async () => {
-    const parsed = intentSchema.safeParse(values);
-    if (!parsed.success) throw new AppError(400, "invalid", "Some fields need attention.", fieldErrors(parsed.error));
+  return handleForm(args.request, intentSchema, async (input, values) => {
     const db = await getDb();
-    const input = parsed.data;
     switch (input.intent) {
       case "profile":
         await updateUserName(db, auth.user.id, input.name);
-        return { ok: true as const, intent: input.intent, message: "Your name is saved." };
+        return redirectWithFlash("/me/account", { tone: "success", text: "Your name is saved." });
       case "password":
         await changePassword(auth.user, auth.sessionId, values);
-        return {
-          ok: true as const,
-          intent: input.intent,
-          message: "Your new password is set. Every other device was signed out.",
-        };
+        return redirectWithFlash("/me/account", {
+          tone: "success",
+          text: "Your new password is set. Every other device was signed out.",
+        });
       case "revoke": {
         if (input.sessionId === auth.sessionId) {
           await revokeSession(db, auth.sessionId, auth.user.id);
           return redirect("/login?notice=signed-out", { headers: { "Set-Cookie": await expiredSessionCookie() } });
         }
         const ended = await revokeSession(db, input.sessionId, auth.user.id);
-        if (!ended)
-          return data({ ok: false as const, intent: input.intent, message: "That session had already ended." }, { status: 404 });
-        return { ok: true as const, intent: input.intent, message: "That device is signed out." };
+        if (!ended) throw new AppError(404, "not-found", "That session had already ended.");
+        return redirectWithFlash("/me/account", { tone: "success", text: "That device is signed out." });
       }
       case "everywhere":
         await revokeUserSessions(db, auth.user.id);

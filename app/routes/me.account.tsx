@@ -1,10 +1,11 @@
 import { Form, Link } from "react-router";
-import { Field, Notice, SubmitButton } from "~/components/auth-form";
+import { Field, Notice, SubmitButton } from "~/components/form";
 import { getDb } from "~/db/client.server";
 import { listLiveSessions } from "~/models/sessions.server";
 import { listOAuthAccounts } from "~/models/users.server";
 import { requireUser } from "~/services/auth/guards.server";
 import { getAuth } from "~/services/auth/session.server";
+import { failureOf } from "~/utils/forms";
 import type { Route } from "./+types/me.account";
 import { accountAction } from "./me.account.server";
 
@@ -45,13 +46,13 @@ function Section({ title, children }: { title: string; children: React.ReactNode
 
 export default function Account({ loaderData, actionData }: Route.ComponentProps) {
   const { account, sessions, linked } = loaderData;
-  const result = actionData && "intent" in actionData ? actionData : null;
-  const failure = actionData && !actionData.ok ? actionData : null;
-  const values = failure && "values" in failure ? (failure.values ?? {}) : {};
-  const fields = failure && "fields" in failure ? (failure.fields ?? {}) : {};
-  const intent = result?.intent ?? values.intent;
+  // Success comes back as a flash message after a redirect; only a refusal is answered here.
+  const failure = failureOf(actionData);
+  const values = failure?.values ?? {};
+  const fields = failure?.fields ?? {};
+  const intent = values.intent;
   const message = (forIntent: string) =>
-    intent === forIntent && actionData ? <Notice tone={actionData.ok ? "success" : "error"}>{actionData.message}</Notice> : null;
+    failure && intent === forIntent ? <Notice tone="error">{failure.message}</Notice> : null;
 
   return (
     <div className="mx-auto max-w-3xl px-6 py-10">

@@ -1,10 +1,12 @@
 import { Form, Link, redirect } from "react-router";
-import { AuthCard, Field, Notice, SubmitButton } from "~/components/auth-form";
+import { AuthCard } from "~/components/auth-form";
+import { Field, Notice, SubmitButton } from "~/components/form";
 import { getDb } from "~/db/client.server";
 import { peekToken } from "~/models/user-tokens.server";
 import { completePasswordReset } from "~/services/auth/accounts.server";
-import { formValues, PASSWORD_MIN } from "~/services/auth/fields.server";
-import { formHeaders, runForm } from "~/services/auth/form-result.server";
+import { newPasswordSchema, PASSWORD_MIN } from "~/services/auth/fields.server";
+import { failureOf } from "~/utils/forms";
+import { formHeaders, handleForm } from "~/utils/forms.server";
 import type { Route } from "./+types/reset.token";
 
 export const meta: Route.MetaFunction = () => [
@@ -20,15 +22,14 @@ export async function loader({ params }: Route.LoaderArgs) {
 export const headers = formHeaders;
 
 export async function action({ request, params }: Route.ActionArgs) {
-  const values = formValues(await request.formData());
-  return runForm(values, async () => {
-    await completePasswordReset(request, params.token, values);
+  return handleForm(request, newPasswordSchema, async (input) => {
+    await completePasswordReset(request, params.token, input);
     return redirect("/login?notice=reset");
   });
 }
 
 export default function ResetWithToken({ loaderData, actionData }: Route.ComponentProps) {
-  const failure = actionData && "ok" in actionData && !actionData.ok ? actionData : null;
+  const failure = failureOf(actionData);
   if (!loaderData.valid || failure?.code === "expired") {
     return (
       <AuthCard title="This link no longer works">

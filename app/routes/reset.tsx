@@ -1,9 +1,11 @@
 import { Form, Link } from "react-router";
-import { AuthCard, Field, Notice, SubmitButton } from "~/components/auth-form";
+import { AuthCard } from "~/components/auth-form";
+import { Field, Notice, SubmitButton } from "~/components/form";
 import { TOKEN_TTL } from "~/models/user-tokens.server";
 import { requestPasswordReset } from "~/services/auth/accounts.server";
-import { formValues } from "~/services/auth/fields.server";
-import { formHeaders, runForm } from "~/services/auth/form-result.server";
+import { emailOnlySchema } from "~/services/auth/fields.server";
+import { failureOf } from "~/utils/forms";
+import { formHeaders, handleForm } from "~/utils/forms.server";
 import type { Route } from "./+types/reset";
 
 export const meta: Route.MetaFunction = () => [
@@ -18,16 +20,15 @@ export function loader() {
 export const headers = formHeaders;
 
 export async function action({ request }: Route.ActionArgs) {
-  const values = formValues(await request.formData());
-  return runForm(values, async () => {
-    await requestPasswordReset(request, values);
+  return handleForm(request, emailOnlySchema, async (input) => {
+    await requestPasswordReset(request, input);
     // Said whether or not the address has an account.
-    return { ok: true as const, email: values.email.trim() };
+    return { ok: true as const, email: input.email };
   });
 }
 
 export default function Reset({ loaderData, actionData }: Route.ComponentProps) {
-  const failure = actionData && !actionData.ok ? actionData : null;
+  const failure = failureOf(actionData);
   return (
     <AuthCard title="Reset your password" intro="Tell us the address you signed up with and we will mail you a link.">
       {actionData?.ok ? (

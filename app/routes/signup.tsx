@@ -1,8 +1,10 @@
 import { Form, Link } from "react-router";
-import { AuthCard, Field, Notice, SubmitButton } from "~/components/auth-form";
-import { signUp } from "~/services/auth/accounts.server";
-import { formValues, PASSWORD_MIN } from "~/services/auth/fields.server";
-import { formHeaders, runForm } from "~/services/auth/form-result.server";
+import { AuthCard } from "~/components/auth-form";
+import { Field, Notice, SubmitButton } from "~/components/form";
+import { signUp, signUpSchema } from "~/services/auth/accounts.server";
+import { PASSWORD_MIN } from "~/services/auth/fields.server";
+import { failureOf } from "~/utils/forms";
+import { formHeaders, handleForm } from "~/utils/forms.server";
 import { redirectIfSignedIn } from "~/services/auth/guards.server";
 import type { Route } from "./+types/signup";
 
@@ -19,11 +21,10 @@ export async function loader(args: Route.LoaderArgs) {
 export const headers = formHeaders;
 
 export async function action({ request }: Route.ActionArgs) {
-  const values = formValues(await request.formData());
-  return runForm(values, async () => {
-    await signUp(request, values);
+  return handleForm(request, signUpSchema, async (input) => {
+    await signUp(request, input);
     // The same answer whether or not the address already had an account.
-    return { ok: true as const, email: values.email.trim() };
+    return { ok: true as const, email: input.email };
   });
 }
 
@@ -44,7 +45,7 @@ export default function SignUp({ loaderData, actionData }: Route.ComponentProps)
       </AuthCard>
     );
   }
-  const failure = actionData && !actionData.ok ? actionData : null;
+  const failure = failureOf(actionData);
   const values = failure?.values ?? {};
   return (
     <AuthCard

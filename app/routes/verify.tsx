@@ -1,9 +1,13 @@
 import { Form, Link, redirect } from "react-router";
-import { AuthCard, Notice, SubmitButton } from "~/components/auth-form";
+import { AuthCard } from "~/components/auth-form";
+import { Notice, SubmitButton } from "~/components/form";
 import { getDb } from "~/db/client.server";
 import { peekToken } from "~/models/user-tokens.server";
 import { confirmAddress } from "~/services/auth/accounts.server";
-import { formHeaders, runForm } from "~/services/auth/form-result.server";
+import { z } from "zod";
+import { AppError } from "~/utils/errors";
+import { failureOf } from "~/utils/forms";
+import { formHeaders, handleForm } from "~/utils/forms.server";
 import type { Route } from "./+types/verify";
 
 export const meta: Route.MetaFunction = () => [
@@ -23,14 +27,14 @@ export async function loader({ params }: Route.LoaderArgs) {
 export const headers = formHeaders;
 
 export async function action({ request, params }: Route.ActionArgs) {
-  return runForm({}, async () => {
+  return handleForm(request, z.object({}), async () => {
     if (await confirmAddress(request, params.token)) return redirect("/login?notice=verified");
-    return { ok: false as const, message: "This confirmation link has expired or was used already." };
+    throw new AppError(400, "expired", "This confirmation link has expired or was used already.");
   });
 }
 
 export default function Verify({ loaderData, actionData }: Route.ComponentProps) {
-  const failure = actionData && "ok" in actionData && !actionData.ok ? actionData : null;
+  const failure = failureOf(actionData);
   if (!loaderData.valid || failure) {
     return (
       <AuthCard title="This link no longer works">

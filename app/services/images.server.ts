@@ -1,6 +1,7 @@
 import { createHash, randomBytes } from "node:crypto";
 import sharp from "sharp";
 import type { MediaVariant } from "~/db/schema";
+import { tooLarge, unsupportedType } from "~/utils/errors";
 import type { Storage } from "./storage.server";
 
 export const MAX_UPLOAD_BYTES = 12 * 1024 * 1024;
@@ -8,14 +9,7 @@ const ACCEPTED_FORMATS = new Set(["jpeg", "png", "webp", "heif", "avif", "tiff"]
 /** Widths served through `srcset`; an image is never enlarged past its own width. */
 export const VARIANT_WIDTHS = [480, 960, 1600] as const;
 
-export class ImageError extends Error {
-  constructor(
-    readonly status: 413 | 415 | 400,
-    message: string,
-  ) {
-    super(message);
-  }
-}
+const unreadable = () => unsupportedType("The file is not an image we can read (JPEG, PNG, WebP, HEIF or TIFF).");
 
 export type ProcessedImage = {
   keyPrefix: string;
@@ -32,16 +26,16 @@ export type ProcessedImage = {
  */
 export async function processImage(storage: Storage, input: Buffer): Promise<ProcessedImage> {
   if (input.byteLength > MAX_UPLOAD_BYTES) {
-    throw new ImageError(413, `The photo is larger than ${MAX_UPLOAD_BYTES / 1024 / 1024} MB.`);
+    throw tooLarge(`The photo is larger than ${MAX_UPLOAD_BYTES / 1024 / 1024} MB.`);
   }
   let meta: Awaited<ReturnType<ReturnType<typeof sharp>["metadata"]>>;
   try {
     meta = await sharp(input).metadata();
   } catch {
-    throw new ImageError(415, "The file is not an image we can read (JPEG, PNG, WebP, HEIF or TIFF).");
+    throw unreadable();
   }
   if (!meta.format || !ACCEPTED_FORMATS.has(meta.format)) {
-    throw new ImageError(415, "The file is not an image we can read (JPEG, PNG, WebP, HEIF or TIFF).");
+    throw unreadable();
   }
   const upright = sharp(input).rotate();
   const { info } = await upright.clone().toBuffer({ resolveWithObject: true });

@@ -1,3 +1,8 @@
+import { data } from "react-router";
+import type { z } from "zod";
+import { AppError, tooLarge, unsupportedType } from "./errors";
+import { fieldErrors } from "./validation";
+
 /** The JSON API's error shape: `{ error: { code, message, fields } }` with the matching status. */
 export function apiError(
   status: number,
@@ -6,5 +11,97 @@ export function apiError(
   fields?: Record<string, string>,
   extra?: Record<string, unknown>,
 ) {
-  return Response.json({ error: { code, message, ...(fields ? { fields } : {}), ...extra } }, { status });
+  const headers = typeof extra?.retryAfter === "number" ? { "Retry-After": String(extra.retryAfter) } : undefined;
+  return Response.json({ error: { code, message, ...(fields ? { fields } : {}), ...extra } }, { status, headers });
+}
+
+/** An AppError as the API answers it. */
+export function errorResponse(error: AppError) {
+  return apiError(error.status, error.code, error.message, error.fields, error.extra);
+}
+
+/**
+ * Wraps an `/api` loader or action: an AppError (or a Response thrown by a guard) becomes the
+ * API's error answer; anything else is left to fail as a 500, since it is our fault.
+ */
+export function apiHandler<A>(handler: (args: A) => Promise<Response>): (args: A) => Promise<Response> {
+  return async (args) => {
+    try {
+      return await handler(args);
+    } catch (error) {
+      if (error instanceof AppError) return errorResponse(error);
+      if (error instanceof Response) return error;
+      throw error;
+    }
+  };
+}
+
+/** An AppError as a thrown page response: the route's ErrorBoundary shows its message in plain words. */
+export function pageErrorResponse(error: AppError) {
+  const retryAfter = error.extra?.retryAfter;
+  return data(error.message, {
+    status: error.status,
+    headers: typeof retryAfter === "number" ? { "Retry-After": String(retryAfter) } : undefined,
+  });
+}
+
+/** Runs a page loader's work; an AppError (404, 403 …) is thrown on as the page response for it. */
+export async function forPage<T>(work: () => Promise<T>): Promise<T> {
+  try {
+    return await work();
+  } catch (error) {
+    if (error instanceof AppError) throw pageErrorResponse(error);
+    throw error;
+  }
+}
+
+/** Reads a body as text, refusing it once it passes `maxBytes` without reading the rest. */
+export async function readBodyText(request: Request, maxBytes: number): Promise<string> {
+  const declared = Number(request.headers.get("content-length") ?? "");
+  const limit = `The body is larger than ${formatBytes(maxBytes)}.`;
+  if (Number.isFinite(declared) && declared > maxBytes) throw tooLarge(limit);
+  if (!request.body) return "";
+  const reader = request.body.getReader();
+  const chunks: Uint8Array[] = [];
+  let total = 0;
+  for (;;) {
+    const { done, value } = await reader.read();
+    if (done) break;
+    total += value.byteLength;
+    if (total > maxBytes) {
+      await reader.cancel();
+      throw tooLarge(limit);
+    }
+    chunks.push(value);
+  }
+  return Buffer.concat(chunks).toString("utf8");
+}
+
+/**
+ * Reads a JSON body against a schema: 415 for another content type, 413 past `maxBytes`,
+ * 400 for JSON that does not parse, and 400 with `fields` for JSON that does not fit the schema.
+ */
+export async function readJson<S extends z.ZodType>(
+  request: Request,
+  schema: S,
+  options: { maxBytes: number },
+): Promise<z.output<S>> {
+  const type = request.headers.get("content-type") ?? "";
+  if (!/^application\/json\s*(;|$)/i.test(type)) {
+    throw unsupportedType("Send the body as JSON (Content-Type: application/json).");
+  }
+  const text = await readBodyText(request, options.maxBytes);
+  let body: unknown;
+  try {
+    body = JSON.parse(text);
+  } catch {
+    throw new AppError(400, "invalid-json", "The body is not valid JSON.");
+  }
+  const parsed = schema.safeParse(body);
+  if (!parsed.success) throw new AppError(400, "invalid", "Some fields need attention.", fieldErrors(parsed.error));
+  return parsed.data;
+}
+
+function formatBytes(bytes: number) {
+  return bytes >= 1024 * 1024 ? `${Math.round(bytes / 1024 / 1024)} MB` : `${Math.round(bytes / 1024)} KB`;
 }

@@ -69,7 +69,9 @@ const MATRIX: Record<string, Probe[]> = {
   ],
   "/verify/:token": [
     { path: `/verify/${badToken}`, expect: all(200) },
-    { method: "POST", path: `/verify/${badToken}`, expect: all(200) },
+    // An unknown link is refused as expired, and a post that is not a form is refused before that.
+    { method: "POST", path: `/verify/${badToken}`, form: {}, expect: all(400) },
+    { method: "POST", path: `/verify/${badToken}`, expect: all(415) },
   ],
   "/reset": [
     { path: "/reset", expect: all(200) },

@@ -2,7 +2,7 @@ import { and, eq } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { startAppServer } from "../support/app-server";
 import { useTestDatabase } from "../support/base-db";
-import { TestClient } from "../support/http-client";
+import { expectFlash, TestClient } from "../support/http-client";
 
 let app: Awaited<ReturnType<typeof startAppServer>>;
 const DEMO_PASSWORD = "torqueleaf-demo";
@@ -97,8 +97,7 @@ describe("admin → users", () => {
       role: "editor",
       reason: "Passed the electrical review course",
     });
-    expect(ok.status).toBe(200);
-    expect(await ok.text()).toContain("Mina Solberg is now an editor.");
+    await expectFlash(admin, ok, "/admin/users", "Mina Solberg is now an editor.");
     // Her open session sees the new permissions on the next request.
     const me = await reader.me();
     expect(me?.role).toBe("editor");
@@ -130,7 +129,7 @@ describe("admin → users", () => {
       userId: String(authorId),
       reason: "Posting spam links",
     });
-    expect(disable.status).toBe(200);
+    await expectFlash(admin, disable, "/admin/users", "can no longer sign in.");
     expect(await author.me()).toBeNull();
     const refused = await new TestClient(app.origin).signIn("author2@torqueleaf.test", DEMO_PASSWORD);
     expect(refused.status).toBe(403);
@@ -141,7 +140,7 @@ describe("admin → users", () => {
       userId: String(authorId),
       reason: "Cleared after review",
     });
-    expect(enable.status).toBe(200);
+    await expectFlash(admin, enable, "/admin/users", "can sign in again.");
     expect((await new TestClient(app.origin).signIn("author2@torqueleaf.test", DEMO_PASSWORD)).status).toBe(302);
     expect((await auditFor(authorId, "user.disabled"))[0].reason).toBe("Posting spam links");
     expect((await auditFor(authorId, "user.enabled"))[0].reason).toBe("Cleared after review");

@@ -87,3 +87,17 @@ export function linkPath(mail: { text: string }, pattern: RegExp): string {
 
 export const uniqueEmail = (label: string) =>
   `${label}-${Date.now().toString(36)}${Math.random().toString(36).slice(2, 6)}@example.test`;
+
+/**
+ * A change answered the browser way: a redirect to `to`, whose page shows the one-time message
+ * once, and no longer after that.
+ */
+export async function expectFlash(client: TestClient, response: Response, to: string, text: string) {
+  if (response.status !== 302) throw new Error(`expected a redirect, got ${response.status}: ${await response.text()}`);
+  const location = response.headers.get("location") ?? "";
+  if (new URL(location, client.origin).pathname !== to) throw new Error(`redirected to ${location}, not ${to}`);
+  const page = await (await client.get(location)).text();
+  if (!page.includes(text)) throw new Error(`the page after the change does not say "${text}"`);
+  const again = await (await client.get(location)).text();
+  if (again.includes(text)) throw new Error(`the message "${text}" showed a second time`);
+}

@@ -8,26 +8,16 @@ import { createUser, findUserByEmail, getUserById, markEmailVerified, setPasswor
 import { sendInBackground, sendMail } from "~/services/mail.server";
 import { hashPassword, verifyPassword } from "~/services/password.server";
 import { AppError } from "~/utils/errors";
+import { parseValues } from "~/utils/forms.server";
 import { env } from "~/utils/env.server";
 import { clientAddress } from "./client-address.server";
-import {
-  currentPasswordField,
-  emailField,
-  fieldErrors,
-  nameField,
-  newPasswordField,
-  passwordMatchesIdentity,
-} from "./fields.server";
+import { currentPasswordField, emailField, nameField, newPasswordField, passwordMatchesIdentity } from "./fields.server";
 import { alreadyRegisteredMail, confirmAddressMail, passwordChangedMail, resetPasswordMail } from "./mails.server";
 
 const address = (request: Request) => clientAddress(request, env().TRUST_PROXY);
 const link = (path: string) => `${env().APP_ORIGIN}${path}`;
 
-function parse<S extends z.ZodType>(schema: S, values: Record<string, string>): z.infer<S> {
-  const parsed = schema.safeParse(values);
-  if (!parsed.success) throw new AppError(400, "invalid", "Some fields need attention.", fieldErrors(parsed.error));
-  return parsed.data;
-}
+const parse = parseValues;
 
 const identityProblem = "Choose a password that is not your e-mail address or your name.";
 

@@ -8,9 +8,10 @@ import { enforceLimits } from "~/models/rate-limit.server";
 import { findUserByEmail } from "~/models/users.server";
 import { hashPassword, verifyPassword } from "~/services/password.server";
 import { AppError } from "~/utils/errors";
+import { parseValues } from "~/utils/forms.server";
 import { env } from "~/utils/env.server";
 import { clientAddress } from "./client-address.server";
-import { currentPasswordField, emailField, fieldErrors, formValues } from "./fields.server";
+import { currentPasswordField, emailField } from "./fields.server";
 import { createGitHubStrategy, type GitHubProfile } from "./github.server";
 
 export type Signed = { kind: "password"; user: User } | { kind: "github"; profile: GitHubProfile };
@@ -32,9 +33,7 @@ async function passwordMatches(user: User | undefined, password: string) {
 
 /** E-mail and password: field checks, then the abuse limits, then the password, then the account's state. */
 async function verifyPasswordSignIn({ form, request }: { form: FormData; request: Request }): Promise<Signed> {
-  const parsed = signInSchema.safeParse(formValues(form));
-  if (!parsed.success) throw new AppError(400, "invalid", "Some fields need attention.", fieldErrors(parsed.error));
-  const { email, password } = parsed.data;
+  const { email, password } = parseValues(signInSchema, Object.fromEntries(form));
   const db = await getDb();
   await enforceLimits(db, "sign-in", { address: clientAddress(request, env().TRUST_PROXY), account: email });
   const user = await findUserByEmail(db, email);

@@ -65,3 +65,8 @@ export function flowCookie(
       .filter(Boolean),
   });
 }
+
+/** The one-time message after a redirect-after-post (signed, so a page shows only our own words). */
+export function flashCookie(settings: Pick<Env, "NODE_ENV" | "APP_ORIGIN" | "SESSION_SECRET">) {
+  return flowCookie("tl_flash", 60, settings);
+}

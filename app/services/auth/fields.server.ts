@@ -32,29 +32,9 @@ export const newPasswordField = z
   .max(PASSWORD_MAX, `Use at most ${PASSWORD_MAX} characters.`)
   .refine((value) => !isCommonPassword(value), "That password is one of the most common ones. Pick something less guessable.");
 
-/** The first message per field, keyed by the form field's name, for the form to show beside it. */
-export function fieldErrors(error: z.ZodError): Record<string, string> {
-  const fields: Record<string, string> = {};
-  for (const issue of error.issues) {
-    const key = String(issue.path[0] ?? "_");
-    fields[key] ??= issue.message;
-  }
-  return fields;
-}
-
-/** Reads a form into a plain object of strings (files and repeated keys are not used by these forms). */
-export function formValues(form: FormData): Record<string, string> {
-  const values: Record<string, string> = {};
-  for (const [key, value] of form) if (typeof value === "string") values[key] = value;
-  return values;
-}
-
-/** What a form may show again after an error: everything typed except secrets. */
-export function keepTyped(values: Record<string, string>): Record<string, string> {
-  const kept: Record<string, string> = {};
-  for (const [key, value] of Object.entries(values)) if (!/password/i.test(key)) kept[key] = value;
-  return kept;
-}
+/** Forms that ask for nothing but an address (resend a confirmation, ask for a reset link). */
+export const emailOnlySchema = z.object({ email: emailField });
+export const newPasswordSchema = z.object({ password: newPasswordField });
 
 /** A new password must also differ from the account's own e-mail address and name (same NIST section). */
 export function passwordMatchesIdentity(password: string, identity: { email: string; name?: string }): boolean {

@@ -1,7 +1,8 @@
-import { data, type MiddlewareFunction, redirect } from "react-router";
+import { type MiddlewareFunction, redirect } from "react-router";
 import type { User } from "~/db/schema";
 import { env } from "~/utils/env.server";
-import { apiError } from "~/utils/http.server";
+import { AppError, forbidden, unauthorized } from "~/utils/errors";
+import { errorResponse, pageErrorResponse } from "~/utils/http.server";
 import { can, type Permission } from "~/utils/permissions";
 import { CROSS_SITE_MESSAGE, isAllowedWrite } from "./origin.server";
 import { getUser } from "./session.server";
@@ -17,7 +18,7 @@ const isApi = (request: Request) => new URL(request.url).pathname.startsWith("/a
 export async function requireUser(args: Args): Promise<User> {
   const user = await getUser(args);
   if (user) return user;
-  if (isApi(args.request)) throw apiError(401, "unauthorized", "Sign in to continue.");
+  if (isApi(args.request)) throw errorResponse(unauthorized());
   const url = new URL(args.request.url);
   throw redirect(`/login?redirectTo=${encodeURIComponent(url.pathname + url.search)}`);
 }
@@ -26,8 +27,8 @@ export async function requireUser(args: Args): Promise<User> {
 export async function requirePermission(args: Args, permission: Permission): Promise<User> {
   const user = await requireUser(args);
   if (can(user, permission)) return user;
-  if (isApi(args.request)) throw apiError(403, "forbidden", "Your account does not have access to this.");
-  throw data("Your account does not have access to this page.", { status: 403 });
+  const refusal = forbidden();
+  throw isApi(args.request) ? errorResponse(refusal) : pageErrorResponse(refusal);
 }
 
 /** Pages for people who are not signed in (sign-in, sign-up, reset) send a signed-in visitor onwards. */
@@ -41,6 +42,7 @@ export async function redirectIfSignedIn(args: Args, to = "/") {
  */
 export const crossSiteMiddleware: MiddlewareFunction<Response> = async ({ request }, next) => {
   if (isAllowedWrite(request, env().APP_ORIGIN)) return next();
-  if (isApi(request)) return apiError(403, "cross-site", CROSS_SITE_MESSAGE);
-  throw data(CROSS_SITE_MESSAGE, { status: 403 });
+  const refusal = new AppError(403, "cross-site", CROSS_SITE_MESSAGE);
+  if (isApi(request)) return errorResponse(refusal);
+  throw pageErrorResponse(refusal);
 };

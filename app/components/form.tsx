@@ -1,0 +1,119 @@
+import { type ReactNode, useEffect, useRef } from "react";
+import { useNavigation } from "react-router";
+
+import type { Flash } from "~/utils/forms";
+
+export type { FormFailure } from "~/utils/forms";
+
+export function Field({
+  label,
+  name,
+  type = "text",
+  defaultValue,
+  error,
+  hint,
+  autoComplete,
+  required = true,
+  id: givenId,
+  clearOn,
+}: {
+  id?: string;
+  /** For password fields: a new value here (the action's latest answer) empties the field, as a full page load would. */
+  clearOn?: unknown;
+  label: string;
+  name: string;
+  type?: string;
+  defaultValue?: string;
+  error?: string;
+  hint?: string;
+  autoComplete?: string;
+  required?: boolean;
+}) {
+  const id = givenId ?? `field-${name}`;
+  const input = useRef<HTMLInputElement>(null);
+  useEffect(() => {
+    if (type === "password" && clearOn && input.current) input.current.value = "";
+  }, [clearOn, type]);
+  const described = [error ? `${id}-error` : null, hint ? `${id}-hint` : null].filter(Boolean).join(" ") || undefined;
+  return (
+    <div className="mt-4 first:mt-0">
+      <label htmlFor={id} className="block text-sm font-semibold text-ink">
+        {label}
+      </label>
+      <input
+        ref={input}
+        id={id}
+        name={name}
+        type={type}
+        defaultValue={type === "password" ? undefined : defaultValue}
+        autoComplete={autoComplete}
+        required={required}
+        aria-invalid={error ? true : undefined}
+        aria-describedby={described}
+        className={`mt-1.5 w-full rounded-md border bg-paper px-3 py-2 ${error ? "border-z-danger" : "border-rule"}`}
+      />
+      {hint ? (
+        <p id={`${id}-hint`} className="mt-1 text-xs text-ink-soft">
+          {hint}
+        </p>
+      ) : null}
+      {error ? (
+        <p id={`${id}-error`} className="mt-1 text-sm font-medium text-z-danger">
+          {error}
+        </p>
+      ) : null}
+    </div>
+  );
+}
+
+export function Notice({ tone, children }: { tone: "error" | "success" | "info"; children: ReactNode }) {
+  const styles = {
+    error: "border-z-danger bg-white text-ink",
+    success: "border-spruce-500 bg-spruce-50 text-ink",
+    info: "border-brass-500 bg-brass-50 text-ink",
+  }[tone];
+  return (
+    <div role={tone === "error" ? "alert" : "status"} className={`mb-5 rounded-md border-l-4 px-4 py-3 text-sm ${styles}`}>
+      {children}
+    </div>
+  );
+}
+
+export function SubmitButton({
+  children,
+  name,
+  value,
+  tone = "primary",
+}: {
+  children: ReactNode;
+  name?: string;
+  value?: string;
+  tone?: "primary" | "quiet" | "danger";
+}) {
+  const busy = useNavigation().state === "submitting";
+  const styles = {
+    primary: "bg-spruce-800 text-paper hover:bg-spruce-700",
+    quiet: "border border-rule text-spruce-800 hover:bg-paper-deep",
+    danger: "bg-z-danger text-white hover:opacity-90",
+  }[tone];
+  return (
+    <button
+      type="submit"
+      name={name}
+      value={value}
+      disabled={busy}
+      className={`rounded-md px-4 py-2 font-semibold disabled:opacity-60 ${styles}`}
+    >
+      {children}
+    </button>
+  );
+}
+
+/** The one-time message after a change (set by `redirectWithFlash`), above the page it led to. */
+export function FlashBanner({ flash }: { flash: Flash }) {
+  return (
+    <div className="mx-auto mt-4 max-w-6xl px-6">
+      <Notice tone={flash.tone}>{flash.text}</Notice>
+    </div>
+  );
+}
