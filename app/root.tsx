@@ -1,4 +1,4 @@
-import { isRouteErrorResponse, Links, Meta, Outlet, Scripts, ScrollRestoration, useRouteLoaderData } from "react-router";
+import { isRouteErrorResponse, Links, Meta, Outlet, Scripts, ScrollRestoration } from "react-router";
 import type { Route } from "./+types/root";
 import "./app.css";
 import { SiteFooter, SiteHeader } from "./components/chrome";
@@ -7,6 +7,7 @@ import { crossSiteMiddleware } from "./services/auth/guards.server";
 import { getUser, sessionMiddleware } from "./services/auth/session.server";
 import { env } from "./utils/env.server";
 import { permissionsFor } from "./utils/permissions";
+import type { RootData } from "./utils/root-data";
 
 export const links: Route.LinksFunction = () => [{ rel: "icon", href: "/favicon.svg", type: "image/svg+xml" }];
 
@@ -17,19 +18,13 @@ export const links: Route.LinksFunction = () => [{ rel: "icon", href: "/favicon.
 export const middleware: Route.MiddlewareFunction[] = [crossSiteMiddleware, sessionMiddleware];
 
 /** The signed-in member and what they may do, so screens can hide what they cannot use (the server checks again). */
-export async function loader(args: Route.LoaderArgs) {
+export async function loader(args: Route.LoaderArgs): Promise<RootData> {
   const user = await getUser(args);
   return {
     user: user ? { id: user.id, name: user.name, email: user.email, role: user.role } : null,
     permissions: user ? [...permissionsFor(user.role)] : [],
     devInbox: env().LOCAL_FAKES,
   };
-}
-
-export type RootData = Awaited<ReturnType<typeof loader>>;
-
-export function useRootData() {
-  return useRouteLoaderData<RootData>("root");
 }
 
 export function Layout({ children }: { children: React.ReactNode }) {
