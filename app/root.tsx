@@ -1,4 +1,4 @@
-import { data, isRouteErrorResponse, Links, Meta, Outlet, Scripts, ScrollRestoration, useRouteLoaderData } from "react-router";
+import { data, isRouteErrorResponse, Links, Meta, Outlet, Scripts, ScrollRestoration } from "react-router";
 import type { Route } from "./+types/root";
 import "./app.css";
 import { SiteFooter, SiteHeader } from "./components/chrome";
@@ -9,6 +9,7 @@ import { getUser, sessionMiddleware } from "./services/auth/session.server";
 import { env } from "./utils/env.server";
 import { takeFlash } from "./utils/forms.server";
 import { permissionsFor } from "./utils/permissions";
+import type { RootData } from "./utils/root-data";
 
 export const links: Route.LinksFunction = () => [{ rel: "icon", href: "/favicon.svg", type: "image/svg+xml" }];
 
@@ -28,15 +29,9 @@ export async function loader(args: Route.LoaderArgs) {
       permissions: user ? [...permissionsFor(user.role)] : [],
       devInbox: env().LOCAL_FAKES,
       flash,
-    },
+    } satisfies RootData,
     { headers },
   );
-}
-
-export type RootData = Route.ComponentProps["loaderData"];
-
-export function useRootData() {
-  return useRouteLoaderData<RootData>("root");
 }
 
 export function Layout({ children }: { children: React.ReactNode }) {

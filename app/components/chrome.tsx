@@ -1,6 +1,6 @@
 import { Form, Link, NavLink, useLocation } from "react-router";
-import type { RootData } from "~/root";
-import { useRootData } from "~/root";
+import { type RootData, useRootData } from "~/utils/root-data";
+import { ROLE_LABELS } from "~/utils/vocab";
 
 export function LogoMark({ className = "h-9 w-9" }: { className?: string }) {
   return <img src="/logo.svg" alt="" className={className} width={36} height={36} />;
@@ -18,8 +18,6 @@ const MENU: { to: string; label: string; permission?: string; role?: string }[] 
   { to: "/contributor-terms", label: "Write guides for Torqueleaf", role: "reader" },
   { to: "/admin/users", label: "Users and roles", permission: "manage:users" },
 ];
-
-const ROLE_NAMES: Record<string, string> = { reader: "Reader", author: "Author", editor: "Editor", admin: "Admin" };
 
 function UserMenu({ user, permissions }: { user: NonNullable<RootData["user"]>; permissions: string[] }) {
   const entries = MENU.filter((e) => (!e.permission || permissions.includes(e.permission)) && (!e.role || e.role === user.role));
@@ -41,7 +39,7 @@ function UserMenu({ user, permissions }: { user: NonNullable<RootData["user"]>; 
         <p className="px-3 py-2 text-xs text-ink-soft">
           {user.email}
           <br />
-          {ROLE_NAMES[user.role] ?? user.role}
+          {ROLE_LABELS[user.role]}
         </p>
         <ul>
           {entries.map((e) => (

@@ -5,12 +5,19 @@ import {
   CALLOUT_KINDS,
   CATEGORIES,
   DRIVETRAINS,
+  FINDING_SEVERITIES,
+  FINDING_STATUSES,
   FITMENT_STATUSES,
   GUIDE_STATES,
   POWERTRAINS,
+  REVIEW_DECISIONS,
   REVISION_STATES,
   ROLES,
+  TOKEN_KINDS,
 } from "../utils/vocab";
+
+// The token kinds' own home is the vocabulary module; named here too for the token queries.
+export { TOKEN_KINDS };
 
 // Column names are snake_case in SQL (see `casing` in client.server.ts and drizzle.config.ts).
 const id = () => integer().primaryKey({ autoIncrement: true });
@@ -69,8 +76,6 @@ export const sessions = sqliteTable(
   },
   (t) => [index("sessions_user").on(t.userId)],
 );
-
-export const TOKEN_KINDS = ["verify-email", "reset-password", "link-github"] as const;
 
 /** Single-use mail tokens, stored hashed. */
 export const userTokens = sqliteTable(
@@ -322,8 +327,6 @@ export const tools = sqliteTable(
 
 // ── Review ─────────────────────────────────────────────────────────
 
-export const REVIEW_DECISIONS = ["request-changes", "approve", "unpublish"] as const;
-
 export const reviews = sqliteTable(
   "reviews",
   {
@@ -340,9 +343,6 @@ export const reviews = sqliteTable(
   },
   (t) => [index("reviews_revision").on(t.revisionId)],
 );
-
-export const FINDING_SEVERITIES = ["blocking", "warning", "info"] as const;
-export const FINDING_STATUSES = ["open", "acknowledged"] as const;
 
 /** Safety findings computed by the engine when a revision is submitted. */
 export const findings = sqliteTable(

@@ -1,28 +1,6 @@
 import type { CircuitInput } from "./circuit-input";
-import type { WireCheck } from "./circuit";
-import type { SourceId } from "./sources";
+import type { CircuitFinding, WireCheck } from "./circuit-types";
 import { num } from "./format";
-
-export type Severity = "blocking" | "warning" | "info";
-
-/** Rule ids are part of the API: the review desk and stored findings key on them. */
-export type CircuitRule =
-  | "no-fuse"
-  | "fuse-exceeds-wire"
-  | "fuse-above-ampacity"
-  | "fuse-undersized"
-  | "drop-over-limit"
-  | "fuse-far-from-battery"
-  | "relay-recommended"
-  | "wire-unrated";
-
-export type CircuitFinding = {
-  rule: CircuitRule;
-  severity: Severity;
-  message: string;
-  source: SourceId;
-  numbers: Record<string, number>;
-};
 
 /** 33 CFR 183.455(b): 7 in from the source. */
 export const MAX_FUSE_DISTANCE_MM = 178;

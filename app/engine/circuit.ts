@@ -1,5 +1,6 @@
 import type { CircuitInput } from "./circuit-input";
-import { circuitFindings, type CircuitFinding } from "./circuit-findings";
+import { circuitFindings } from "./circuit-findings";
+import type { CircuitFinding, WireCheck } from "./circuit-types";
 import { sourceRefs, type SourceId, type SourceRef } from "./sources";
 import {
   AWG_SIZES,
@@ -19,25 +20,10 @@ import { num } from "./format";
 
 export * from "./circuit-input";
 export * from "./wire";
-export type { CircuitFinding, CircuitRule, Severity } from "./circuit-findings";
+export type { CircuitFinding, CircuitRule, Severity, WireCheck } from "./circuit-types";
 
 /** NEC 210.20(A): a continuous load may use only 80 % of the device's rating. */
 export const CONTINUOUS_FUSE_FACTOR = 1.25;
-
-export type WireCheck = {
-  wire: WireSize;
-  label: string;
-  /** null: smaller than the thinnest gauge in the ampacity table. */
-  ampacityA: number | null;
-  /** The gauge whose table row gave the ampacity (itself for AWG sizes). */
-  ampacityGauge: AwgSize | null;
-  resistanceOhmPerM: number;
-  dropV: number;
-  dropPct: number;
-  /** Against the recommended fuse for candidates, the chosen fuse for `chosen`; false when there is no fuse to carry. */
-  carriesFuse: boolean;
-  withinDrop: boolean;
-};
 
 export type CircuitResult = {
   inputs: CircuitInput;

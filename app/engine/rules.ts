@@ -1,9 +1,9 @@
 import type { Callout, CircuitCallout, SignalWord } from "./callouts";
 import { checkCircuit, type CircuitRule, type Severity } from "./circuit";
+import type { Powertrain } from "../utils/vocab";
 import type { SourceId } from "./sources";
 
-export const POWERTRAINS = ["gas", "diesel", "hybrid", "plug-in-hybrid", "electric"] as const;
-export type Powertrain = (typeof POWERTRAINS)[number];
+export type { Powertrain };
 
 /** Variants whose high-voltage system an electrical install can come near. */
 export const HIGH_VOLTAGE_POWERTRAINS: readonly Powertrain[] = ["hybrid", "plug-in-hybrid", "electric"];

@@ -3,7 +3,6 @@ import { describe, expect, it } from "vitest";
 import { checkCircuit, circuitInputSchema } from "./circuit";
 import {
   AWG_SIZES,
-  MM2_SIZES,
   ampacityA,
   ampacityGauge,
   awgAreaMm2,
@@ -66,13 +65,6 @@ describe("AWG conductor model", () => {
 
 describe("metric conductor model", () => {
   const run = { oneWayLengthM: 18, currentA: 2.1, limitV: 0.6 };
-
-  it("picks 2.5 mm² with an ideal conductivity of 56 m/(Ω·mm²)", () => {
-    // engine.md §4 metric check: 2 × 18 m × 2.1 A / (56 × 0.6 V) = 2.25 mm² (ideal copper, not IEC 60228).
-    const area = (2 * run.oneWayLengthM * run.currentA) / (56 * run.limitV);
-    expect(area).toBeCloseTo(2.25, 6);
-    expect(MM2_SIZES.find((s) => s >= area)).toBe(2.5);
-  });
 
   it("finds that IEC 60228 class 5 2.5 mm² just misses 0.6 V", () => {
     // IEC 60228 class 5: 2.5 mm² at most 7.98 mΩ/m at 20 °C — the engine's metric model.

@@ -1,7 +1,7 @@
 import { Form } from "react-router";
 import { Notice, SubmitButton } from "~/components/form";
 import { failureOf } from "~/utils/forms";
-import { ROLES } from "~/utils/vocab";
+import { ROLE_LABELS, ROLES } from "~/utils/vocab";
 import { Pager } from "~/components/pager";
 import type { Route } from "./+types/admin.users";
 import { usersAction, usersLoader } from "./admin.users.server";
@@ -11,7 +11,6 @@ export const meta: Route.MetaFunction = () => [{ title: "Users · Admin · Torqu
 export const loader = (args: Route.LoaderArgs) => usersLoader(args);
 export const action = (args: Route.ActionArgs) => usersAction(args);
 
-const ROLE_LABELS = { reader: "Reader", author: "Author", editor: "Editor", admin: "Admin" } as const;
 const input = "rounded-md border border-rule bg-paper px-3 py-2 text-sm";
 
 export default function AdminUsers({ loaderData, actionData }: Route.ComponentProps) {

@@ -2,6 +2,7 @@
 
 export const ROLES = ["reader", "author", "editor", "admin"] as const;
 export type Role = (typeof ROLES)[number];
+export const ROLE_LABELS: Record<Role, string> = { reader: "Reader", author: "Author", editor: "Editor", admin: "Admin" };
 
 export const POWERTRAINS = ["gas", "diesel", "hybrid", "plug-in-hybrid", "electric"] as const;
 export type Powertrain = (typeof POWERTRAINS)[number];
@@ -25,6 +26,17 @@ export type RevisionState = (typeof REVISION_STATES)[number];
 
 export const FITMENT_STATUSES = ["fits", "fits-with-changes", "does-not-fit"] as const;
 export type FitmentStatus = (typeof FITMENT_STATUSES)[number];
+
+/** What a single-use mailed token is for. */
+export const TOKEN_KINDS = ["verify-email", "reset-password", "link-github"] as const;
+export type TokenKind = (typeof TOKEN_KINDS)[number];
+
+export const REVIEW_DECISIONS = ["request-changes", "approve", "unpublish"] as const;
+export type ReviewDecision = (typeof REVIEW_DECISIONS)[number];
+/** The engine's finding severities, as stored with a submitted revision. */
+export const FINDING_SEVERITIES = ["blocking", "warning", "info"] as const;
+export const FINDING_STATUSES = ["open", "acknowledged"] as const;
+export type FindingStatus = (typeof FINDING_STATUSES)[number];
 
 export const CALLOUT_KINDS = ["torque", "circuit", "caution", "tip"] as const;
 export type CalloutKind = (typeof CALLOUT_KINDS)[number];

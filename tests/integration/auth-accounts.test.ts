@@ -1,20 +1,14 @@
 import { createHash } from "node:crypto";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { startAppServer } from "../support/app-server";
-import { useTestDatabase } from "../support/base-db";
-import { expectFlash, latestMail, linkPath, mailsTo, TestClient, uniqueEmail } from "../support/http-client";
+import { describe, expect, it } from "vitest";
+import { expectFlash, latestMail, linkPath, mailsTo, uniqueEmail } from "../support/http-client";
+import { sharedApp } from "../support/shared-app";
 
-let app: Awaited<ReturnType<typeof startAppServer>>;
-
-beforeAll(async () => {
-  useTestDatabase("auth-accounts");
-  app = await startAppServer();
-});
-afterAll(async () => app?.stop());
+// The shared app server; every account these tests change is made here with a unique address.
+const app = sharedApp("auth-accounts");
 
 /** Signs up through the form and confirms the address through the mailed link. */
 async function joinAndConfirm(name: string, email: string, password: string) {
-  const client = new TestClient(app.origin);
+  const client = app.client();
   const signup = await client.post("/signup", { name, email, password });
   expect(signup.status).toBe(200);
   const mail = await latestMail(email, /Confirm your e-mail/);
@@ -29,7 +23,7 @@ async function joinAndConfirm(name: string, email: string, password: string) {
 describe("sign-up, confirmation and sign-in", () => {
   it("a new member signs up, confirms by the mailed link, signs in as a reader and signs out", async () => {
     const email = uniqueEmail("new-member");
-    const client = new TestClient(app.origin);
+    const client = app.client();
     const signup = await client.post("/signup", { name: "Aino Brask", email, password: "brass fittings at dawn" });
     expect(signup.status).toBe(200);
     expect(await signup.text()).toContain("Check your inbox");
@@ -64,7 +58,7 @@ describe("sign-up, confirmation and sign-in", () => {
   });
 
   it("keeps what was typed and names the bad field, without ever echoing the password", async () => {
-    const client = new TestClient(app.origin);
+    const client = app.client();
     const response = await client.post("/signup", {
       name: "Aino Brask",
       email: "not-an-address",
@@ -79,7 +73,7 @@ describe("sign-up, confirmation and sign-in", () => {
   });
 
   it("refuses short and common passwords with the reason beside the field", async () => {
-    const client = new TestClient(app.origin);
+    const client = app.client();
     const short = await client.post("/signup", { name: "A", email: uniqueEmail("short"), password: "gear" });
     expect(short.status).toBe(400);
     expect(await short.text()).toContain("Use at least 8 characters");
@@ -89,7 +83,7 @@ describe("sign-up, confirmation and sign-in", () => {
   });
 
   it("answers a sign-up for a taken address exactly like a new one, and tells the owner by mail instead", async () => {
-    const client = new TestClient(app.origin);
+    const client = app.client();
     const earlier = await mailsTo("reader@torqueleaf.test");
     const before = earlier.length;
     const newest = Math.max(0, ...earlier.map((m) => m.id));
@@ -108,7 +102,7 @@ describe("sign-up, confirmation and sign-in", () => {
   });
 
   it("answers a wrong password and an unknown address alike", async () => {
-    const client = new TestClient(app.origin);
+    const client = app.client();
     const wrong = await client.signIn("reader@torqueleaf.test", "not the password");
     const unknown = await client.signIn(uniqueEmail("nobody"), "not the password");
     expect(wrong.status).toBe(401);
@@ -121,7 +115,7 @@ describe("sign-up, confirmation and sign-in", () => {
 
   it("sends a fresh confirmation link on request, answering alike for unknown addresses", async () => {
     const email = uniqueEmail("resend");
-    const client = new TestClient(app.origin);
+    const client = app.client();
     await client.post("/signup", { name: "Resend Test", email, password: "wire sized by drop" });
     const first = await latestMail(email, /Confirm/);
     const resend = await client.post("/login", { intent: "resend", email });
@@ -139,7 +133,7 @@ describe("sign-up, confirmation and sign-in", () => {
 describe("mailed links", () => {
   it("stop working once their time is up", async () => {
     const email = uniqueEmail("late");
-    const client = new TestClient(app.origin);
+    const client = app.client();
     await client.post("/signup", { name: "Late Reader", email, password: "opened the mail too late" });
     const path = linkPath(await latestMail(email, /Confirm/), /https?:\/\/\S+\/verify\/[\w-]+/);
     const { getDb } = await import("~/db/client.server");
@@ -161,7 +155,7 @@ describe("mailed links", () => {
 
   it("are stored only as hashes", async () => {
     const email = uniqueEmail("hashed");
-    await new TestClient(app.origin).post("/signup", { name: "Hash Check", email, password: "nothing in plain text" });
+    await app.client().post("/signup", { name: "Hash Check", email, password: "nothing in plain text" });
     const token = linkPath(await latestMail(email, /Confirm/), /https?:\/\/\S+\/verify\/[\w-]+/)
       .split("/")
       .at(-1)!;
@@ -177,11 +171,11 @@ describe("password reset", () => {
   it("mails a single-use link, sets the new password and ends every session of the account", async () => {
     const email = uniqueEmail("reset");
     await joinAndConfirm("Reset Tester", email, "first long password");
-    const laptop = new TestClient(app.origin);
+    const laptop = app.client();
     expect((await laptop.signIn(email, "first long password")).status).toBe(302);
     expect(await laptop.me()).not.toBeNull();
 
-    const stranger = new TestClient(app.origin);
+    const stranger = app.client();
     const request = await stranger.post("/reset", { email });
     const unknown = await stranger.post("/reset", { email: uniqueEmail("nobody") });
     expect(request.status).toBe(200);
@@ -212,8 +206,8 @@ describe("account settings", () => {
   it("changes the name, and a password change ends the other sessions but keeps this one", async () => {
     const email = uniqueEmail("settings");
     await joinAndConfirm("Settings Tester", email, "my first passphrase");
-    const phone = new TestClient(app.origin);
-    const desk = new TestClient(app.origin);
+    const phone = app.client();
+    const desk = app.client();
     await phone.signIn(email, "my first passphrase");
     await desk.signIn(email, "my first passphrase");
 
@@ -242,8 +236,8 @@ describe("account settings", () => {
   it("lists the sessions, signs out one device, then signs out everywhere", async () => {
     const email = uniqueEmail("sessions");
     await joinAndConfirm("Session Tester", email, "a long enough phrase");
-    const a = new TestClient(app.origin);
-    const b = new TestClient(app.origin);
+    const a = app.client();
+    const b = app.client();
     await a.signIn(email, "a long enough phrase");
     await b.signIn(email, "a long enough phrase");
     const page = await (await a.get("/me/account")).text();
@@ -267,7 +261,7 @@ describe("account settings", () => {
   });
 
   it("sends anonymous visitors to sign in and back", async () => {
-    const response = await new TestClient(app.origin).get("/me/account");
+    const response = await app.client().get("/me/account");
     expect(response.status).toBe(302);
     expect(response.headers.get("location")).toBe("/login?redirectTo=%2Fme%2Faccount");
   });
@@ -277,7 +271,7 @@ describe("contributor terms", () => {
   it("a reader who accepts becomes an author, recorded in the audit log", async () => {
     const email = uniqueEmail("terms");
     await joinAndConfirm("Terms Tester", email, "writing my first guide");
-    const client = new TestClient(app.origin);
+    const client = app.client();
     await client.signIn(email, "writing my first guide");
     const unticked = await client.post("/contributor-terms", {});
     expect(unticked.status).toBe(400);

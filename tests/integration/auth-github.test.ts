@@ -1,15 +1,9 @@
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { startAppServer } from "../support/app-server";
-import { useTestDatabase } from "../support/base-db";
-import { TestClient } from "../support/http-client";
+import { describe, expect, it } from "vitest";
+import type { TestClient } from "../support/http-client";
+import { sharedApp } from "../support/shared-app";
 
-let app: Awaited<ReturnType<typeof startAppServer>>;
-
-beforeAll(async () => {
-  useTestDatabase("auth-github");
-  app = await startAppServer();
-});
-afterAll(async () => app?.stop());
+// The shared app server; every account these tests change is made here with a unique address.
+const app = sharedApp("auth-github");
 
 // The GitHub stand-in's invented identities (app/services/fakes/github.ts).
 const TOVE = 710001; // verified address, no account here yet
@@ -43,7 +37,7 @@ async function throughGitHub(client: TestClient, identity: number, opts: { redir
 
 describe("sign-in with GitHub through the stand-in", () => {
   it("creates a reader account for a new identity with a verified address, and finds it again by GitHub's id", async () => {
-    const client = new TestClient(app.origin);
+    const client = app.client();
     const done = await throughGitHub(client, TOVE, { redirectTo: "/contributor-terms" });
     expect(done.status).toBe(302);
     expect(done.headers.get("location")).toBe("/contributor-terms");
@@ -59,15 +53,15 @@ describe("sign-in with GitHub through the stand-in", () => {
       .where(and(eq(auditLog.subjectType, "user"), eq(auditLog.subjectId, String(me?.id))));
     expect(linked).toMatchObject({ action: "user.linked-provider", data: { provider: "github", providerUserId: String(TOVE) } });
 
-    const again = new TestClient(app.origin);
+    const again = app.client();
     await throughGitHub(again, TOVE);
     expect((await again.me())?.id).toBe(me?.id);
     // The account has no password, so the password form cannot open it.
-    expect((await new TestClient(app.origin).signIn("tove.arnesen@example.test", "anything at all")).status).toBe(401);
+    expect((await app.client().signIn("tove.arnesen@example.test", "anything at all")).status).toBe(401);
   });
 
   it("asks before linking to an existing account with the same verified address; cancelling changes nothing", async () => {
-    const client = new TestClient(app.origin);
+    const client = app.client();
     const done = await throughGitHub(client, RUNE);
     expect(done.headers.get("location")).toBe("/auth/github/link");
     expect(await client.me()).toBeNull();
@@ -81,11 +75,11 @@ describe("sign-in with GitHub through the stand-in", () => {
     expect(cancel.headers.get("location")).toBe("/login");
     expect(await client.me()).toBeNull();
     // Nothing was linked: the same identity is asked again.
-    expect((await throughGitHub(new TestClient(app.origin), RUNE)).headers.get("location")).toBe("/auth/github/link");
+    expect((await throughGitHub(app.client(), RUNE)).headers.get("location")).toBe("/auth/github/link");
   });
 
   it("links on confirmation, signs in as the existing reader, and signs straight in afterwards", async () => {
-    const client = new TestClient(app.origin);
+    const client = app.client();
     await throughGitHub(client, RUNE, { redirectTo: "/me/account" });
     const link = await client.post("/auth/github/link", { intent: "link" });
     expect(link.status).toBe(302);
@@ -96,14 +90,14 @@ describe("sign-in with GitHub through the stand-in", () => {
       "/login?notice=link-expired",
     );
 
-    const later = new TestClient(app.origin);
+    const later = app.client();
     const direct = await throughGitHub(later, RUNE);
     expect(direct.headers.get("location")).toBe("/");
     expect((await later.me())?.email).toBe("reader@torqueleaf.test");
   });
 
   it("refuses to link when GitHub does not report the matching address as verified", async () => {
-    const client = new TestClient(app.origin);
+    const client = app.client();
     const done = await throughGitHub(client, PIA);
     expect(done.headers.get("location")).toBe("/login?notice=github-unverified");
     expect(await client.me()).toBeNull();
@@ -113,14 +107,14 @@ describe("sign-in with GitHub through the stand-in", () => {
   });
 
   it("ends the trip when the state does not match the one this browser was given", async () => {
-    const client = new TestClient(app.origin);
+    const client = app.client();
     const done = await throughGitHub(client, TOVE, { tamperState: true });
     expect(done.headers.get("location")).toBe("/login?notice=github-failed");
     expect(await client.me()).toBeNull();
   });
 
   it("ignores a return address off the site", async () => {
-    const client = new TestClient(app.origin);
+    const client = app.client();
     const done = await throughGitHub(client, TOVE, { redirectTo: "//evil.example/steal" });
     expect(done.headers.get("location")).toBe("/");
   });

@@ -17,16 +17,22 @@ async function freePort(): Promise<number> {
  * Serves the app from source exactly as `npm run dev` does (Vite with React Router's plugin and
  * our peer-address stamp), on a free port, against the calling file's database copy. Tests talk
  * to it over real HTTP, so the root middleware, cookies and redirects are all in play.
+ *
+ * `host` is where it listens and what the origin names: the shared server of the integration run
+ * listens on 127.0.0.1, so that clients can connect from other loopback addresses.
  */
-export async function startAppServer(): Promise<{ origin: string; stop: () => Promise<void> }> {
+export async function startAppServer(
+  options: { host?: "localhost" | "127.0.0.1" } = {},
+): Promise<{ origin: string; stop: () => Promise<void> }> {
+  const host = options.host ?? "localhost";
   const port = await freePort();
-  const origin = `http://localhost:${port}`;
+  const origin = `http://${host}:${port}`;
   process.env.APP_ORIGIN = origin;
   process.env.PORT = String(port);
   const { createServer } = await import("vite");
   const vite: ViteDevServer = await createServer({
     logLevel: "error",
-    server: { port, strictPort: true, host: "localhost", hmr: false, watch: null },
+    server: { port, strictPort: true, host, hmr: false, watch: null },
     plugins: [peerAddressPlugin()],
   });
   await vite.listen();

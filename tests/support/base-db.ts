@@ -4,6 +4,10 @@ import { fileURLToPath } from "node:url";
 
 export const TMP_DIR = resolve(dirname(fileURLToPath(import.meta.url)), "../.tmp");
 export const BASE_DB = join(TMP_DIR, "base.db");
+/** The S3 stand-in's folder: the demo photos the base database points at. */
+export const S3_DIR = join(TMP_DIR, "s3");
+/** The copy of the base database that the integration run's shared app server uses. */
+export const SHARED_DB = join(TMP_DIR, "shared.db");
 
 /**
  * Gives the calling test file its own copy of the migrated demo database, so files never share

@@ -1,11 +1,30 @@
+import { Agent } from "undici";
+
+// One connection pool per local address, shared by the clients of a test file.
+const agents = new Map<string, Agent>();
+const agentFor = (localAddress: string) => {
+  const agent = agents.get(localAddress) ?? new Agent({ localAddress });
+  agents.set(localAddress, agent);
+  return agent;
+};
+
 /**
  * A minimal browser for integration tests: keeps cookies, sends our Origin on writes (as a
  * browser does for forms), never follows redirects, so each hop can be checked.
+ *
+ * `localAddress` (any of 127.0.0.0/8) makes it connect from that address, so the server sees
+ * another client: abuse limits count per client address, taken from the socket.
  */
 export class TestClient {
   readonly cookies = new Map<string, string>();
+  private readonly dispatcher: Agent | undefined;
 
-  constructor(readonly origin: string) {}
+  constructor(
+    readonly origin: string,
+    readonly options: { localAddress?: string } = {},
+  ) {
+    this.dispatcher = options.localAddress ? agentFor(options.localAddress) : undefined;
+  }
 
   cookieHeader() {
     return [...this.cookies].map(([k, v]) => `${k}=${v}`).join("; ");
@@ -29,7 +48,8 @@ export class TestClient {
     const method = (init.method ?? "GET").toUpperCase();
     if (method !== "GET" && init.origin !== null && !headers.has("origin")) headers.set("origin", init.origin ?? this.origin);
     const url = path.startsWith("http") ? path : `${this.origin}${path}`;
-    const response = await fetch(url, { ...init, headers, redirect: "manual" });
+    // Node's fetch takes an undici dispatcher; the DOM types do not know the option.
+    const response = await fetch(url, { ...init, headers, redirect: "manual", dispatcher: this.dispatcher } as RequestInit);
     this.remember(response);
     return response;
   }
