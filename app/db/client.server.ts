@@ -118,7 +118,7 @@ export async function connectDb(url: string, authToken?: string, options: { retr
       if (elapsed + pause > retryForMs) {
         const code = (error as { extendedCode?: string; code?: string }).extendedCode ?? (error as { code?: string }).code;
         throw new Error(
-          `The database ${url} stayed locked for ${(elapsed / 1000).toFixed(1)} s over ${attempt} attempts (${code}). ` +
+          `The database ${url} stayed locked for ${(elapsed / 1000).toFixed(1)} s (${attempt} attempt${attempt === 1 ? "" : "s"}, ${code}). ` +
             "Another process is holding it or recovering it after a crash: stop that process or wait for it, then start again.",
           { cause: error },
         );

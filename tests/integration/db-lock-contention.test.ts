@@ -74,4 +74,27 @@ describe("writes while another process holds the write lock", () => {
     expect(created.length).toBeGreaterThanOrEqual(7);
     expect(holder.errors).toEqual([]);
   });
+
+  it("a batch that reads before it writes waits too (it takes the write lock first)", async () => {
+    const { batch } = await import("~/db/batch.server");
+    const { rateLimits } = await import("~/db/schema");
+    if (!holder) holder = startSecondProcess("db-lock-holder.ts", [file, String(HOLD_MS), String(GAP_MS)]);
+    const outcomes: string[] = [];
+    for (let i = 0; i < 5; i++) {
+      await holder.next("locked");
+      // A read as the first statement would start a read transaction, and SQLite refuses to turn a
+      // read transaction into a write one while another connection writes (SQLITE_BUSY at once,
+      // without the busy wait: https://www.sqlite.org/lang_transaction.html#deferred_immediate_and_exclusive_transactions).
+      try {
+        await batch(db, [
+          db.select({ key: rateLimits.key }).from(rateLimits).limit(1),
+          db.insert(rateLimits).values({ key: `read-then-write:${i}`, windowStart: new Date(), count: 1 }),
+        ]);
+        outcomes.push("ok");
+      } catch (error) {
+        outcomes.push(errorCode(error));
+      }
+    }
+    expect(outcomes).toEqual(Array(5).fill("ok"));
+  });
 });
