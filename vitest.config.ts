@@ -10,7 +10,11 @@ export default defineConfig({
       {
         // Pure tests beside the code (and of the code's structure): no database, no servers.
         extends: true,
-        test: { name: "unit", include: ["app/**/*.test.ts", "tests/unit/**/*.test.ts"] },
+        test: {
+          name: "unit",
+          include: ["app/**/*.test.ts", "tests/unit/**/*.test.ts"],
+          exclude: ["app/security/lockfile-floors.real.test.ts"],
+        },
       },
       {
         // Real SQLite, the local stand-ins and one shared app server, started by the global setup.
