@@ -11,7 +11,7 @@ import { draftInputSchema } from "~/models/guide-input";
 import { fieldErrors } from "~/utils/validation";
 import { createGuide, saveDraft } from "~/models/guides.server";
 import { uploadPhoto } from "~/models/media.server";
-import { decideReview, revisionCautions, submitRevision } from "~/models/review.server";
+import { approveRevision, revisionCautions, signOffCaution, submitRevision } from "~/models/review.server";
 import { createUser, findUserByEmail } from "~/models/users.server";
 import type { Storage } from "~/services/storage.server";
 
@@ -35,6 +35,7 @@ export async function loadDemoData(db: Db, storage: Storage, log: (line: string)
 
   const editor = await findUserByEmail(db, "editor@torqueleaf.test");
   if (!editor) throw new Error("the demo editor account is missing");
+  // Keyed by author and file: a draft may show only its own author's uploads.
   const uploaded = new Map<string, number>();
 
   for (const sample of guideSamples) {
@@ -46,13 +47,14 @@ export async function loadDemoData(db: Db, storage: Storage, log: (line: string)
     for (const step of sample.steps) {
       const photos = [];
       for (const photo of step.photos) {
-        let mediaId = uploaded.get(photo.file);
+        const key = `${author.id}:${photo.file}`;
+        let mediaId = uploaded.get(key);
         if (!mediaId) {
           const jpeg = await sharp(await readFile(new URL(photo.file, photosDir)))
             .jpeg({ quality: 90 })
             .toBuffer();
-          mediaId = (await uploadPhoto(db, storage, author.id, jpeg, photo.file.replace(/\.svg$/, ".jpg"))).id;
-          uploaded.set(photo.file, mediaId);
+          mediaId = (await uploadPhoto(db, storage, author, jpeg, photo.file.replace(/\.svg$/, ".jpg"))).id;
+          uploaded.set(key, mediaId);
         }
         photos.push({ mediaId, alt: photo.alt, caption: photo.caption });
       }
@@ -64,7 +66,7 @@ export async function loadDemoData(db: Db, storage: Storage, log: (line: string)
       if (!variant) throw new Error(`demo guide ${sample.slug}: unknown variant ${row.variant}`);
       fitment.push({ variantId: variant.id, status: row.status, note: row.note ?? null });
     }
-    const created = await createGuide(db, author.id, sample, { slug: sample.slug });
+    const created = await createGuide(db, author, sample, { slug: sample.slug });
     const parsed = draftInputSchema.safeParse({
       ...sample,
       version: created.draft.version,
@@ -75,14 +77,14 @@ export async function loadDemoData(db: Db, storage: Storage, log: (line: string)
     if (!parsed.success) {
       throw new Error(`demo guide ${sample.slug} is invalid: ${JSON.stringify(fieldErrors(parsed.error))}`);
     }
-    await saveDraft(db, created.id, parsed.data);
+    await saveDraft(db, created.id, author, parsed.data);
     if (sample.state !== "draft") {
-      const { revisionId } = await submitRevision(db, created.id, author.id, sample.changeSummary);
+      const { revisionId } = await submitRevision(db, created.id, author, sample.changeSummary);
       if (sample.state === "published") {
         for (const caution of await revisionCautions(db, revisionId)) {
-          await decideReview(db, revisionId, editor.id, { intent: "sign-off", cautionId: caution.id });
+          await signOffCaution(db, revisionId, editor, { cautionId: caution.id });
         }
-        await decideReview(db, revisionId, editor.id, { intent: "approve" });
+        await approveRevision(db, revisionId, editor);
       }
     }
     log(`demo guide ${sample.slug} (${sample.state})`);

@@ -6,6 +6,7 @@ import type { Callout } from "~/engine/callouts";
 import { runSafetyRules } from "~/engine/rules";
 import { renderBody } from "~/services/richtext.server";
 import { AppError, fromDbError, notFound } from "~/utils/errors";
+import { type Actor, assertCan, canOn } from "~/utils/permissions";
 import type { Powertrain } from "~/utils/vocab";
 import { auditInsert } from "./audit.server";
 import type { DraftInput, GuideMetaInput } from "./guide-input";
@@ -45,7 +46,9 @@ export async function runBatch(db: Db, queries: Parameters<typeof batch>[1]) {
   }
 }
 
-export async function createGuide(db: Db, authorId: number, input: GuideMetaInput, options: { slug?: string } = {}) {
+export async function createGuide(db: Db, actor: Actor, input: GuideMetaInput, options: { slug?: string } = {}) {
+  assertCan(actor, "create:guide");
+  const authorId = actor.id;
   const meta = {
     title: input.title,
     summary: input.summary,
@@ -73,7 +76,10 @@ export async function getGuideById(db: Db, id: number) {
   return db.query.guides.findFirst({ where: eq(guides.id, id) });
 }
 
-/** A revision with everything in it, in order: the editor's and the review desk's view. */
+/**
+ * A revision with everything in it, in order: the one loader behind the editor, the review desk
+ * and the reader's page (which shapes its output from this).
+ */
 export async function loadRevision(db: Db, revisionId: number) {
   const revision = await db.query.revisions.findFirst({ where: eq(revisions.id, revisionId) });
   if (!revision) return null;
@@ -118,9 +124,11 @@ export function rulesInput(loaded: Pick<LoadedRevision, "steps" | "fitment">) {
  * by one; a trigger refuses it when another save came first or the revision is already submitted,
  * and the whole batch rolls back.
  */
-export async function saveDraft(db: Db, guideId: number, input: DraftInput) {
+export async function saveDraft(db: Db, guideId: number, actor: Actor, input: DraftInput) {
   const guide = await getGuideById(db, guideId);
-  if (!guide?.workingRevisionId) throw notFound("This guide");
+  if (!guide) throw notFound("This guide");
+  assertCan(actor, "update:guide", guide);
+  if (!guide.workingRevisionId) throw new AppError(409, "wrong-state", "This guide has no draft to save into.");
   const revisionId = guide.workingRevisionId;
 
   const fields: Record<string, string> = {};
@@ -141,12 +149,22 @@ export async function saveDraft(db: Db, guideId: number, input: DraftInput) {
     if (!knownVariants.some((v) => v.id === row.variantId)) fields[`fitment.${i}.variantId`] = "Unknown vehicle variant";
   });
   const mediaIds = input.steps.flatMap((s) => s.photos.map((p) => p.mediaId));
-  const knownMedia = mediaIds.length
-    ? new Set((await db.select({ id: media.id }).from(media).where(inArray(media.id, mediaIds))).map((m) => m.id))
-    : new Set<number>();
+  const knownMedia = new Map(
+    mediaIds.length
+      ? (await db.select({ id: media.id, ownerId: media.ownerId }).from(media).where(inArray(media.id, mediaIds))).map((m) => [
+          m.id,
+          m,
+        ])
+      : [],
+  );
   input.steps.forEach((s, i) => {
     s.photos.forEach((p, j) => {
-      if (!knownMedia.has(p.mediaId)) fields[`steps.${i}.photos.${j}.mediaId`] = "This photo was not uploaded";
+      const photo = knownMedia.get(p.mediaId);
+      if (!photo) fields[`steps.${i}.photos.${j}.mediaId`] = "This photo was not uploaded";
+      // A draft shows only photos its author uploaded; anyone else's stay theirs.
+      else if (!canOn(actor, "attach:media", photo)) {
+        fields[`steps.${i}.photos.${j}.mediaId`] = "This photo was uploaded by another account: upload your own";
+      }
     });
   });
   if (Object.keys(fields).length) throw new AppError(400, "invalid", "Some fields need attention.", fields);

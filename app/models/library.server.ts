@@ -1,10 +1,11 @@
-import { asc, eq, inArray, type SQL, sql } from "drizzle-orm";
+import { eq, inArray, type SQL, sql } from "drizzle-orm";
 import { z } from "zod";
 import type { Db } from "~/db/client.server";
-import { fitment, guides, stepPhotos, steps } from "~/db/schema";
+import { fitment, guides } from "~/db/schema";
 import { evaluateCallout } from "~/engine/callouts";
 import type { Storage } from "~/services/storage.server";
 import { CATEGORIES, DRIVETRAINS, POWERTRAINS } from "~/utils/vocab";
+import { type LoadedRevision, loadRevision } from "./guides.server";
 import { publicVariants } from "./media.server";
 
 const slugParam = z
@@ -154,21 +155,17 @@ export async function listPublishedGuides(db: Db, query: LibraryQuery) {
   };
 }
 
-async function fitmentFor(db: Db, revisionIds: number[]) {
-  if (!revisionIds.length) return [];
-  const rows = await db.query.fitment.findMany({
-    where: inArray(fitment.revisionId, revisionIds),
-    with: { variant: { with: { generation: { with: { model: { with: { make: true } } } } } } },
-  });
-  return rows.map((f) => ({
-    revisionId: f.revisionId,
+type FitmentWithVehicle = LoadedRevision["fitment"][number];
+
+/** A fitment row as the Library and the guide page show it. */
+function fitmentView(f: FitmentWithVehicle) {
+  const generation = f.variant.generation;
+  return {
     variantId: f.variantId,
-    make: f.variant.generation.model.make.name,
-    model: f.variant.generation.model.name,
-    generation: f.variant.generation.name,
-    years: f.variant.generation.lastYear
-      ? `${f.variant.generation.firstYear}–${f.variant.generation.lastYear}`
-      : `${f.variant.generation.firstYear}–`,
+    make: generation.model.make.name,
+    model: generation.model.name,
+    generation: generation.name,
+    years: generation.lastYear ? `${generation.firstYear}–${generation.lastYear}` : `${generation.firstYear}–`,
     variant: f.variant.name,
     powertrain: f.variant.powertrain,
     drivetrain: f.variant.drivetrain,
@@ -176,30 +173,28 @@ async function fitmentFor(db: Db, revisionIds: number[]) {
     batteryRunM: f.variant.batteryRunM,
     status: f.status,
     note: f.note,
-  }));
+  };
+}
+
+async function fitmentFor(db: Db, revisionIds: number[]) {
+  if (!revisionIds.length) return [];
+  const rows = await db.query.fitment.findMany({
+    where: inArray(fitment.revisionId, revisionIds),
+    with: { variant: { with: { generation: { with: { model: { with: { make: true } } } } } } },
+  });
+  return rows.map((f) => ({ revisionId: f.revisionId, ...fitmentView(f) }));
 }
 
 /** A published guide as the reader sees it, with every callout evaluated by the engine. */
 export async function getPublishedGuide(db: Db, storage: Pick<Storage, "publicUrl">, slug: string) {
   const guide = await db.query.guides.findFirst({
     where: eq(guides.slug, slug),
-    with: { publishedRevision: true, author: { columns: { id: true, name: true, bio: true } } },
+    with: { author: { columns: { id: true, name: true, bio: true } } },
   });
-  if (guide?.state !== "published" || !guide.publishedRevision) return null;
-  const revision = guide.publishedRevision;
-  const stepRows = await db.query.steps.findMany({
-    where: eq(steps.revisionId, revision.id),
-    orderBy: asc(steps.position),
-    with: {
-      callouts: { orderBy: (c, { asc }) => asc(c.position) },
-      photos: { orderBy: asc(stepPhotos.position), with: { media: true } },
-    },
-  });
-  const [fitmentRows, partRows, toolRows] = await Promise.all([
-    fitmentFor(db, [revision.id]),
-    db.query.parts.findMany({ where: (p, { eq }) => eq(p.revisionId, revision.id), orderBy: (p, { asc }) => asc(p.position) }),
-    db.query.tools.findMany({ where: (t, { eq }) => eq(t.revisionId, revision.id), orderBy: (t, { asc }) => asc(t.position) }),
-  ]);
+  if (guide?.state !== "published" || !guide.publishedRevisionId) return null;
+  const loaded = await loadRevision(db, guide.publishedRevisionId);
+  if (!loaded) return null;
+  const { revision } = loaded;
   return {
     id: guide.id,
     slug: guide.slug,
@@ -211,7 +206,7 @@ export async function getPublishedGuide(db: Db, storage: Pick<Storage, "publicUr
     author: guide.author,
     publishedAt: guide.publishedAt,
     revision: { number: revision.number, reviewedAt: revision.reviewedAt, changeSummary: revision.changeSummary },
-    steps: stepRows.map((s) => ({
+    steps: loaded.steps.map((s) => ({
       title: s.title,
       html: s.bodyHtml,
       liftsVehicle: s.liftsVehicle,
@@ -228,15 +223,15 @@ export async function getPublishedGuide(db: Db, storage: Pick<Storage, "publicUr
         return { ...callout, result: evaluateCallout(callout) };
       }),
     })),
-    parts: partRows.map((p) => ({
+    parts: loaded.parts.map((p) => ({
       name: p.name,
       quantity: p.quantity,
       partNumber: p.partNumber,
       notes: p.notes,
       stepIndex: p.stepIndex,
     })),
-    tools: toolRows.map((t) => ({ name: t.name })),
-    fitment: fitmentRows.map(({ revisionId: _r, ...f }) => f),
+    tools: loaded.tools.map((t) => ({ name: t.name })),
+    fitment: loaded.fitment.map(fitmentView),
   };
 }
 

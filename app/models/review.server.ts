@@ -1,34 +1,93 @@
-import { and, count, eq, max, sql } from "drizzle-orm";
+import { and, type Column, count, eq, getTableColumns, max, sql } from "drizzle-orm";
+import { toSnakeCase } from "drizzle-orm/casing";
+import type { SQLiteTable } from "drizzle-orm/sqlite-core";
 import type { BatchQuery } from "~/db/batch.server";
 import type { Db } from "~/db/client.server";
-import { callouts, cautionSignoffs, findings, guides, reviews, revisions, steps } from "~/db/schema";
+import {
+  callouts,
+  cautionSignoffs,
+  findings,
+  fitment,
+  guides,
+  parts,
+  reviews,
+  revisions,
+  stepPhotos,
+  steps,
+  tools,
+} from "~/db/schema";
 import { runSafetyRules } from "~/engine/rules";
-import { AppError, forbidden, notFound } from "~/utils/errors";
+import { AppError, notFound } from "~/utils/errors";
+import { type Actor, assertCan } from "~/utils/permissions";
 import { auditInsert } from "./audit.server";
 import { getGuideById, loadRevision, missingForSubmit, rulesInput, runBatch } from "./guides.server";
+import type { AcknowledgeInput, RequestChangesInput, ReviewDecision, SignOffInput } from "./review-input";
 
-/** Statements that copy a revision into a new draft (steps, callouts, photos, fitment, parts, tools). */
+const sqlName = (column: Column) => (column.keyAsName ? toSnakeCase(column.name) : column.name);
+
+/**
+ * A table's columns by SQL name, less the ones the copy sets itself. Read from the schema, so a
+ * column added later is copied without anyone remembering to list it here.
+ */
+function copiedColumns(table: SQLiteTable, setByCopy: Column[]) {
+  const skip = new Set(setByCopy.map(sqlName));
+  return Object.values(getTableColumns(table))
+    .map(sqlName)
+    .filter((name) => !skip.has(name));
+}
+
+const columnList = (names: string[], from?: string) =>
+  sql.join(
+    names.map((name) => (from ? sql`${sql.identifier(from)}.${sql.identifier(name)}` : sql.identifier(name))),
+    sql`, `,
+  );
+
+/** A revision's own columns that describe its content; the rest are identity and review bookkeeping. */
+const REVISION_NOT_COPIED = [
+  revisions.id,
+  revisions.guideId,
+  revisions.number,
+  revisions.state,
+  revisions.version,
+  revisions.createdById,
+  revisions.changeSummary,
+  revisions.submittedAt,
+  revisions.reviewedAt,
+  revisions.reviewedById,
+  revisions.publishedAt,
+  revisions.createdAt,
+  revisions.updatedAt,
+];
+
+/**
+ * Statements that copy a revision, column for column, into a new draft (steps, callouts, photos,
+ * fitment, parts, tools) and make it the guide's working revision.
+ */
 function copyRevisionQueries(db: Db, fromId: number, guideId: number, number: number, actorId: number): BatchQuery[] {
   const newId = sql`(SELECT id FROM revisions WHERE guide_id = ${guideId} AND number = ${number})`;
-  return [
-    db.run(sql`INSERT INTO revisions (guide_id, number, state, version, title, summary, category, difficulty, minutes, created_by_id)
-      SELECT guide_id, ${number}, 'draft', 1, title, summary, category, difficulty, minutes, ${actorId} FROM revisions WHERE id = ${fromId}`),
-    db.run(sql`INSERT INTO steps (revision_id, position, title, body, body_html, body_text, lifts_vehicle, disconnects_battery)
-      SELECT ${newId}, position, title, body, body_html, body_text, lifts_vehicle, disconnects_battery FROM steps WHERE revision_id = ${fromId}`),
-    db.run(sql`INSERT INTO callouts (step_id, position, kind, data)
-      SELECT ns.id, c.position, c.kind, c.data FROM callouts c
+  const content = copiedColumns(revisions, REVISION_NOT_COPIED);
+  const perRevision = (table: typeof steps | typeof fitment | typeof parts | typeof tools) => {
+    const columns = copiedColumns(table, [table.id, table.revisionId]);
+    return db.run(sql`INSERT INTO ${table} (revision_id, ${columnList(columns)})
+      SELECT ${newId}, ${columnList(columns)} FROM ${table} WHERE revision_id = ${fromId}`);
+  };
+  // Callouts and photos follow their step by position: old step → the new step at the same place.
+  const perStep = (table: typeof callouts | typeof stepPhotos) => {
+    const columns = copiedColumns(table, [table.id, table.stepId]);
+    return db.run(sql`INSERT INTO ${table} (step_id, ${columnList(columns)})
+      SELECT ns.id, ${columnList(columns, "c")} FROM ${table} c
       JOIN steps os ON os.id = c.step_id JOIN steps ns ON ns.revision_id = ${newId} AND ns.position = os.position
-      WHERE os.revision_id = ${fromId}`),
-    db.run(sql`INSERT INTO step_photos (step_id, media_id, position, alt, caption)
-      SELECT ns.id, p.media_id, p.position, p.alt, p.caption FROM step_photos p
-      JOIN steps os ON os.id = p.step_id JOIN steps ns ON ns.revision_id = ${newId} AND ns.position = os.position
-      WHERE os.revision_id = ${fromId}`),
-    db.run(sql`INSERT INTO fitment (revision_id, variant_id, status, note)
-      SELECT ${newId}, variant_id, status, note FROM fitment WHERE revision_id = ${fromId}`),
-    db.run(sql`INSERT INTO parts (revision_id, position, name, quantity, part_number, notes, step_index)
-      SELECT ${newId}, position, name, quantity, part_number, notes, step_index FROM parts WHERE revision_id = ${fromId}`),
-    db.run(sql`INSERT INTO tools (revision_id, position, name)
-      SELECT ${newId}, position, name FROM tools WHERE revision_id = ${fromId}`),
+      WHERE os.revision_id = ${fromId}`);
+  };
+  return [
+    db.run(sql`INSERT INTO revisions (guide_id, number, state, version, created_by_id, ${columnList(content)})
+      SELECT guide_id, ${number}, 'draft', 1, ${actorId}, ${columnList(content)} FROM revisions WHERE id = ${fromId}`),
+    perRevision(steps),
+    perStep(callouts),
+    perStep(stepPhotos),
+    perRevision(fitment),
+    perRevision(parts),
+    perRevision(tools),
     db
       .update(guides)
       .set({ workingRevisionId: sql`${newId}` })
@@ -45,19 +104,29 @@ async function nextRevisionNumber(db: Db, guideId: number) {
 }
 
 /** A published guide stays live while its author drafts the next revision on a copy. */
-export async function startNextRevision(db: Db, guideId: number, actorId: number) {
+export async function startNextRevision(db: Db, guideId: number, actor: Actor) {
   const guide = await getGuideById(db, guideId);
   if (!guide) throw notFound("This guide");
+  assertCan(actor, "update:guide", guide);
   if (guide.workingRevisionId) return guide.workingRevisionId;
   if (!guide.publishedRevisionId) throw new AppError(409, "wrong-state", "This guide has no revision to continue from.");
   const number = await nextRevisionNumber(db, guideId);
-  await runBatch(db, copyRevisionQueries(db, guide.publishedRevisionId, guideId, number, actorId));
+  try {
+    await runBatch(db, copyRevisionQueries(db, guide.publishedRevisionId, guideId, number, actor.id));
+  } catch (error) {
+    // A second tab that started the same copy a moment earlier wins; this one joins its draft.
+    const working = (await getGuideById(db, guideId))?.workingRevisionId;
+    if (working) return working;
+    throw error;
+  }
   return (await getGuideById(db, guideId))?.workingRevisionId ?? null;
 }
 
-export async function submitRevision(db: Db, guideId: number, actorId: number, changeSummary: string) {
+export async function submitRevision(db: Db, guideId: number, actor: Actor, changeSummary: string) {
   const guide = await getGuideById(db, guideId);
-  if (!guide?.workingRevisionId) throw new AppError(409, "wrong-state", "There is no draft to submit.");
+  if (!guide) throw notFound("This guide");
+  assertCan(actor, "submit:guide", guide);
+  if (!guide.workingRevisionId) throw new AppError(409, "wrong-state", "There is no draft to submit.");
   const loaded = await loadRevision(db, guide.workingRevisionId);
   if (!loaded) throw notFound("This draft");
   if (loaded.revision.state !== "draft") {
@@ -84,9 +153,9 @@ export async function submitRevision(db: Db, guideId: number, actorId: number, c
         numbers: f.numbers ?? null,
       }),
     ),
-    ...(guide.publishedRevisionId ? [] : [db.update(guides).set({ state: "in-review" }).where(eq(guides.id, guideId))]),
+    !guide.publishedRevisionId && db.update(guides).set({ state: "in-review" }).where(eq(guides.id, guideId)),
     auditInsert(db, {
-      actorId,
+      actorId: actor.id,
       action: "revision.submit",
       subjectType: "revision",
       subjectId: revisionId,
@@ -115,82 +184,89 @@ export async function revisionCautions(db: Db, revisionId: number) {
   }));
 }
 
-async function reviewableRevision(db: Db, revisionId: number, editorId: number) {
+/** The revision under review with its guide, once the actor may review it and it is waiting for review. */
+async function reviewableRevision(db: Db, revisionId: number, actor: Actor) {
   const revision = await db.query.revisions.findFirst({ where: eq(revisions.id, revisionId), with: { guide: true } });
   if (!revision) throw notFound("This revision");
-  if (revision.guide.authorId === editorId) throw forbidden("Editors cannot review their own guides.");
+  assertCan(actor, "review:revision", revision);
   if (revision.state !== "in-review") throw new AppError(409, "wrong-state", "This revision is not waiting for review.");
   return revision;
 }
 
-export type ReviewDecision =
-  | { intent: "acknowledge"; findingId: number; note: string }
-  | { intent: "sign-off"; cautionId: number }
-  | { intent: "request-changes"; note: string }
-  | { intent: "approve" };
+/** Accepts a warning or note the editor has weighed; a blocking finding needs a change instead. */
+export async function acknowledgeFinding(
+  db: Db,
+  revisionId: number,
+  actor: Actor,
+  input: Pick<AcknowledgeInput, "findingId" | "note">,
+) {
+  await reviewableRevision(db, revisionId, actor);
+  const finding = await db.query.findings.findFirst({
+    where: and(eq(findings.id, input.findingId), eq(findings.revisionId, revisionId)),
+  });
+  if (!finding) throw notFound("This finding");
+  if (finding.severity === "blocking") {
+    throw new AppError(409, "blocking", "A blocking finding needs a change to the guide: request changes from the author.");
+  }
+  await runBatch(db, [
+    db
+      .update(findings)
+      .set({ status: "acknowledged", resolvedById: actor.id, resolvedAt: new Date(), note: input.note })
+      .where(eq(findings.id, finding.id)),
+    auditInsert(db, {
+      actorId: actor.id,
+      action: "finding.acknowledge",
+      subjectType: "finding",
+      subjectId: finding.id,
+      reason: input.note,
+    }),
+  ]);
+  return { ok: true };
+}
 
-export async function decideReview(db: Db, revisionId: number, editorId: number, decision: ReviewDecision) {
-  const revision = await reviewableRevision(db, revisionId, editorId);
+/** Records that an editor has read and accepts one caution's wording; signing twice changes nothing. */
+export async function signOffCaution(db: Db, revisionId: number, actor: Actor, input: Pick<SignOffInput, "cautionId">) {
+  const revision = await reviewableRevision(db, revisionId, actor);
+  assertCan(actor, "signoff:caution", revision);
+  const caution = (await revisionCautions(db, revisionId)).find((c) => c.id === input.cautionId);
+  if (!caution) throw notFound("This caution");
+  if (caution.signedOffBy) return { ok: true };
+  await runBatch(db, [
+    db.insert(cautionSignoffs).values({ calloutId: caution.id, editorId: actor.id }),
+    auditInsert(db, { actorId: actor.id, action: "caution.sign-off", subjectType: "callout", subjectId: caution.id }),
+  ]);
+  return { ok: true };
+}
+
+/** Sends the revision back: it stays as reviewed, and the author continues on a fresh copy. */
+export async function requestChanges(db: Db, revisionId: number, actor: Actor, input: Pick<RequestChangesInput, "note">) {
+  const revision = await reviewableRevision(db, revisionId, actor);
   const guide = revision.guide;
+  const number = await nextRevisionNumber(db, guide.id);
+  await runBatch(db, [
+    db
+      .update(revisions)
+      .set({ state: "changes-requested", reviewedAt: new Date(), reviewedById: actor.id })
+      .where(eq(revisions.id, revisionId)),
+    db.insert(reviews).values({ revisionId, editorId: actor.id, decision: "request-changes", note: input.note }),
+    !guide.publishedRevisionId && db.update(guides).set({ state: "changes-requested" }).where(eq(guides.id, guide.id)),
+    ...copyRevisionQueries(db, revisionId, guide.id, number, actor.id),
+    auditInsert(db, {
+      actorId: actor.id,
+      action: "revision.request-changes",
+      subjectType: "revision",
+      subjectId: revisionId,
+      reason: input.note,
+    }),
+  ]);
+  return { ok: true };
+}
 
-  if (decision.intent === "acknowledge") {
-    const finding = await db.query.findings.findFirst({
-      where: and(eq(findings.id, decision.findingId), eq(findings.revisionId, revisionId)),
-    });
-    if (!finding) throw notFound("This finding");
-    if (finding.severity === "blocking") {
-      throw new AppError(409, "blocking", "A blocking finding needs a change to the guide: request changes from the author.");
-    }
-    await runBatch(db, [
-      db
-        .update(findings)
-        .set({ status: "acknowledged", resolvedById: editorId, resolvedAt: new Date(), note: decision.note })
-        .where(eq(findings.id, finding.id)),
-      auditInsert(db, {
-        actorId: editorId,
-        action: "finding.acknowledge",
-        subjectType: "finding",
-        subjectId: finding.id,
-        reason: decision.note,
-      }),
-    ]);
-    return { ok: true };
-  }
-
-  if (decision.intent === "sign-off") {
-    const caution = (await revisionCautions(db, revisionId)).find((c) => c.id === decision.cautionId);
-    if (!caution) throw notFound("This caution");
-    if (caution.signedOffBy) return { ok: true };
-    await runBatch(db, [
-      db.insert(cautionSignoffs).values({ calloutId: caution.id, editorId }),
-      auditInsert(db, { actorId: editorId, action: "caution.sign-off", subjectType: "callout", subjectId: caution.id }),
-    ]);
-    return { ok: true };
-  }
-
-  if (decision.intent === "request-changes") {
-    const number = await nextRevisionNumber(db, guide.id);
-    await runBatch(db, [
-      db
-        .update(revisions)
-        .set({ state: "changes-requested", reviewedAt: new Date(), reviewedById: editorId })
-        .where(eq(revisions.id, revisionId)),
-      db.insert(reviews).values({ revisionId, editorId, decision: "request-changes", note: decision.note }),
-      ...(guide.publishedRevisionId
-        ? []
-        : [db.update(guides).set({ state: "changes-requested" }).where(eq(guides.id, guide.id))]),
-      ...copyRevisionQueries(db, revisionId, guide.id, number, editorId),
-      auditInsert(db, {
-        actorId: editorId,
-        action: "revision.request-changes",
-        subjectType: "revision",
-        subjectId: revisionId,
-        reason: decision.note,
-      }),
-    ]);
-    return { ok: true };
-  }
-
+/** Publishes the revision once no blocking finding and no unsigned caution remains; the previous one is superseded. */
+export async function approveRevision(db: Db, revisionId: number, actor: Actor) {
+  const revision = await reviewableRevision(db, revisionId, actor);
+  const guide = revision.guide;
+  assertCan(actor, "publish:guide", guide);
   const [blocking] = await db
     .select({ n: count() })
     .from(findings)
@@ -204,12 +280,11 @@ export async function decideReview(db: Db, revisionId: number, editorId: number,
   }
   const now = new Date();
   await runBatch(db, [
-    ...(guide.publishedRevisionId
-      ? [db.update(revisions).set({ state: "superseded" }).where(eq(revisions.id, guide.publishedRevisionId))]
-      : []),
+    !!guide.publishedRevisionId &&
+      db.update(revisions).set({ state: "superseded" }).where(eq(revisions.id, guide.publishedRevisionId)),
     db
       .update(revisions)
-      .set({ state: "published", reviewedAt: now, reviewedById: editorId, publishedAt: now })
+      .set({ state: "published", reviewedAt: now, reviewedById: actor.id, publishedAt: now })
       .where(eq(revisions.id, revisionId)),
     db
       .update(guides)
@@ -225,10 +300,24 @@ export async function decideReview(db: Db, revisionId: number, editorId: number,
         publishedAt: guide.publishedAt ?? now,
       })
       .where(eq(guides.id, guide.id)),
-    db.insert(reviews).values({ revisionId, editorId, decision: "approve" }),
-    auditInsert(db, { actorId: editorId, action: "revision.approve-publish", subjectType: "revision", subjectId: revisionId }),
+    db.insert(reviews).values({ revisionId, editorId: actor.id, decision: "approve" }),
+    auditInsert(db, { actorId: actor.id, action: "revision.approve-publish", subjectType: "revision", subjectId: revisionId }),
   ]);
   return { ok: true };
+}
+
+/** One decision from the review desk (already parsed by `reviewDecisionSchema`), to its function. */
+export function decideReview(db: Db, revisionId: number, actor: Actor, decision: ReviewDecision) {
+  switch (decision.intent) {
+    case "acknowledge":
+      return acknowledgeFinding(db, revisionId, actor, decision);
+    case "sign-off":
+      return signOffCaution(db, revisionId, actor, decision);
+    case "request-changes":
+      return requestChanges(db, revisionId, actor, decision);
+    case "approve":
+      return approveRevision(db, revisionId, actor);
+  }
 }
 
 export async function reviewQueue(db: Db) {
