@@ -38,13 +38,13 @@ describe("writes while another process holds the write lock", () => {
     const { createGuide } = await import("~/models/guides.server");
     const { createSession } = await import("~/models/sessions.server");
     const { hit } = await import("~/models/rate-limit.server");
-    const [author] = await db.select({ id: users.id }).from(users).where(eq(users.role, "author")).limit(1);
+    const [author] = await db.select({ id: users.id, role: users.role }).from(users).where(eq(users.role, "author")).limit(1);
     expect(author).toBeDefined();
 
     holder = startSecondProcess("db-lock-holder.ts", [file, String(HOLD_MS), String(GAP_MS)]);
     const writes = [
       (i: number) =>
-        createGuide(db, author.id, {
+        createGuide(db, author, {
           title: `Lock wait check ${i}`,
           summary: "",
           category: "lighting",
