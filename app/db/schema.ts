@@ -1,5 +1,7 @@
 import { relations, sql } from "drizzle-orm";
 import { index, integer, real, sqliteTable, text, uniqueIndex } from "drizzle-orm/sqlite-core";
+import type { CalloutData } from "../engine/callouts";
+import type { Finding } from "../engine/rules";
 import {
   BATTERY_LOCATIONS,
   CALLOUT_KINDS,
@@ -240,7 +242,7 @@ export const callouts = sqliteTable(
     position: integer().notNull(),
     kind: text({ enum: CALLOUT_KINDS }).notNull(),
     /** Validated by the engine's callout schema for its kind before it is stored. */
-    data: text({ mode: "json" }).notNull().$type<Record<string, unknown>>(),
+    data: text({ mode: "json" }).notNull().$type<CalloutData>(),
   },
   (t) => [index("callouts_step").on(t.stepId)],
 );
@@ -352,7 +354,7 @@ export const findings = sqliteTable(
     revisionId: integer()
       .notNull()
       .references(() => revisions.id, { onDelete: "cascade" }),
-    rule: text().notNull(),
+    rule: text().notNull().$type<Finding["rule"]>(),
     severity: text({ enum: FINDING_SEVERITIES }).notNull(),
     stepIndex: integer(),
     message: text().notNull(),

@@ -106,6 +106,15 @@ export type TipCallout = z.output<typeof tipCalloutSchema>;
 export type Callout = z.output<typeof calloutSchema>;
 export type CalloutInput = z.input<typeof calloutSchema>;
 
+type WithoutKind<T> = T extends unknown ? Omit<T, "kind"> : never;
+/** A callout as stored: its kind in one column, everything else in a JSON column. */
+export type CalloutData = WithoutKind<Callout>;
+
+/** Joins a stored callout's two columns again (it was checked by `calloutSchema` before it was stored). */
+export function storedCallout(row: { kind: Callout["kind"]; data: CalloutData }): Callout {
+  return { kind: row.kind, ...row.data } as Callout;
+}
+
 export type TorqueEvaluation = {
   kind: "torque";
   /** The maker's value in every unit; null when the callout is an estimate. */

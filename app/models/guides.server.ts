@@ -2,7 +2,7 @@ import { asc, eq, inArray, like, sql } from "drizzle-orm";
 import { batch } from "~/db/batch.server";
 import type { Db } from "~/db/client.server";
 import { callouts, fitment, guides, media, parts, revisions, stepPhotos, steps, tools, variants } from "~/db/schema";
-import type { Callout } from "~/engine/callouts";
+import { storedCallout } from "~/engine/callouts";
 import { runSafetyRules } from "~/engine/rules";
 import { renderBody } from "~/services/richtext.server";
 import { AppError, fromDbError, notFound } from "~/utils/errors";
@@ -111,7 +111,7 @@ export function rulesInput(loaded: Pick<LoadedRevision, "steps" | "fitment">) {
       title: s.title,
       liftsVehicle: s.liftsVehicle,
       disconnectsBattery: s.disconnectsBattery,
-      callouts: s.callouts.map((c) => ({ kind: c.kind, ...c.data }) as Callout),
+      callouts: s.callouts.map(storedCallout),
     })),
     fitmentPowertrains: [
       ...new Set(loaded.fitment.filter((f) => f.status !== "does-not-fit").map((f) => f.variant.powertrain)),

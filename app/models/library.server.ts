@@ -2,7 +2,7 @@ import { eq, inArray, type SQL, sql } from "drizzle-orm";
 import { z } from "zod";
 import type { Db } from "~/db/client.server";
 import { fitment, guides } from "~/db/schema";
-import { evaluateCallout } from "~/engine/callouts";
+import { evaluateCallout, storedCallout } from "~/engine/callouts";
 import type { Storage } from "~/services/storage.server";
 import { CATEGORIES, DRIVETRAINS, POWERTRAINS } from "~/utils/vocab";
 import { type LoadedRevision, loadRevision } from "./guides.server";
@@ -219,7 +219,7 @@ export async function getPublishedGuide(db: Db, storage: Pick<Storage, "publicUr
         variants: publicVariants(storage, p.media.variants),
       })),
       callouts: s.callouts.map((c) => {
-        const callout = { kind: c.kind, ...c.data } as Parameters<typeof evaluateCallout>[0];
+        const callout = storedCallout(c);
         return { ...callout, result: evaluateCallout(callout) };
       }),
     })),

@@ -1,3 +1,4 @@
+import { storedCallout } from "~/engine/callouts";
 import { and, type Column, count, eq, getTableColumns, max, sql } from "drizzle-orm";
 import { toSnakeCase } from "drizzle-orm/casing";
 import type { SQLiteTable } from "drizzle-orm/sqlite-core";
@@ -169,19 +170,23 @@ export async function submitRevision(db: Db, guideId: number, actor: Actor, chan
 /** Cautions of a revision with their sign-offs, in step order. */
 export async function revisionCautions(db: Db, revisionId: number) {
   const rows = await db
-    .select({ id: callouts.id, data: callouts.data, stepIndex: steps.position, signedOffBy: cautionSignoffs.editorId })
+    .select({
+      id: callouts.id,
+      kind: callouts.kind,
+      data: callouts.data,
+      stepIndex: steps.position,
+      signedOffBy: cautionSignoffs.editorId,
+    })
     .from(callouts)
     .innerJoin(steps, eq(steps.id, callouts.stepId))
     .leftJoin(cautionSignoffs, eq(cautionSignoffs.calloutId, callouts.id))
     .where(and(eq(steps.revisionId, revisionId), eq(callouts.kind, "caution")))
     .orderBy(steps.position, callouts.position);
-  return rows.map((r) => ({
-    id: r.id,
-    stepIndex: r.stepIndex,
-    signalWord: String(r.data.signalWord),
-    text: String(r.data.text),
-    signedOffBy: r.signedOffBy,
-  }));
+  return rows.flatMap((r) => {
+    const caution = storedCallout(r);
+    if (caution.kind !== "caution") return [];
+    return [{ id: r.id, stepIndex: r.stepIndex, signalWord: caution.signalWord, text: caution.text, signedOffBy: r.signedOffBy }];
+  });
 }
 
 /** The revision under review with its guide, once the actor may review it and it is waiting for review. */
