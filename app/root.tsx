@@ -5,7 +5,7 @@ import { SiteFooter, SiteHeader } from "./components/chrome";
 import { ErrorPage } from "./components/error-page";
 import { crossSiteMiddleware } from "./services/auth/guards.server";
 import { getUser, sessionMiddleware } from "./services/auth/session.server";
-import { env } from "./utils/env.server";
+import { env, standIns } from "./utils/env.server";
 import { permissionsFor } from "./utils/permissions";
 
 export const links: Route.LinksFunction = () => [{ rel: "icon", href: "/favicon.svg", type: "image/svg+xml" }];
@@ -22,7 +22,7 @@ export async function loader(args: Route.LoaderArgs) {
   return {
     user: user ? { id: user.id, name: user.name, email: user.email, role: user.role } : null,
     permissions: user ? [...permissionsFor(user.role)] : [],
-    devInbox: env().LOCAL_FAKES,
+    devInbox: standIns(env()).mail,
   };
 }
 
