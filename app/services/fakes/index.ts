@@ -70,6 +70,8 @@ export async function startLocalFakes(options: FakeOptions) {
   watch(child);
   return {
     settings,
+    /** The stand-ins' process (it changes after a restart). */
+    pid: () => child.pid,
     stop: async () => {
       stopping = true;
       if (child.exitCode !== null || child.signalCode !== null) return;
