@@ -30,7 +30,9 @@ function streamed(path: string, headers: Record<string, string>, pieces: Iterabl
       res.on("end", () => resolve({ status: res.statusCode ?? 0, body }));
     });
     // The server may end the connection once it has answered.
-    req.on("error", (error) => (error.message.includes("EPIPE") || error.message.includes("ECONNRESET") ? undefined : reject(error)));
+    req.on("error", (error) =>
+      error.message.includes("EPIPE") || error.message.includes("ECONNRESET") ? undefined : reject(error),
+    );
     (async () => {
       for (const piece of pieces) {
         if (req.destroyed) return;
