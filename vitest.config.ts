@@ -13,7 +13,6 @@ export default defineConfig({
         test: {
           name: "unit",
           include: ["app/**/*.test.ts", "tests/unit/**/*.test.ts"],
-          exclude: ["app/security/lockfile-floors.real.test.ts"],
         },
       },
       {

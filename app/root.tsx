@@ -6,7 +6,7 @@ import { ErrorPage } from "./components/error-page";
 import { FlashBanner } from "./components/form";
 import { crossSiteMiddleware } from "./services/auth/guards.server";
 import { getUser, sessionMiddleware } from "./services/auth/session.server";
-import { env } from "./utils/env.server";
+import { env, standIns } from "./utils/env.server";
 import { takeFlash } from "./utils/forms.server";
 import { permissionsFor } from "./utils/permissions";
 import type { RootData } from "./utils/root-data";
@@ -27,7 +27,7 @@ export async function loader(args: Route.LoaderArgs) {
     {
       user: user ? { id: user.id, name: user.name, email: user.email, role: user.role } : null,
       permissions: user ? [...permissionsFor(user.role)] : [],
-      devInbox: env().LOCAL_FAKES,
+      devInbox: standIns(env()).mail,
       flash,
     } satisfies RootData,
     { headers },

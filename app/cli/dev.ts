@@ -1,9 +1,14 @@
 import { createServer } from "vite";
 import { peerAddressPlugin } from "~/services/auth/client-address.server";
+import { bodyLimitPlugin } from "~/services/http/body-limit.server";
 import { boot } from "./boot";
 
 /** Development server: boot (fakes, migrations, demo data), then Vite with React Router's plugin. */
 const { settings } = await boot();
-const vite = await createServer({ server: { port: settings.PORT, strictPort: true }, plugins: [peerAddressPlugin()] });
+const vite = await createServer({
+  // HOST empty: every interface.
+  server: { port: settings.PORT, host: settings.HOST || true, strictPort: true },
+  plugins: [bodyLimitPlugin(), peerAddressPlugin()],
+});
 await vite.listen();
 vite.printUrls();

@@ -2,14 +2,20 @@ import compression from "compression";
 import express from "express";
 import { createRequestHandler } from "@react-router/express";
 import { stampPeerAddress } from "~/services/auth/client-address.server";
+import { bodyLimit } from "~/services/http/body-limit.server";
 import { boot } from "./boot";
 
-/** Production-style server: the built app behind Express, after boot (fakes, migrations, demo data). */
-const { settings } = await boot();
+/**
+ * Production-style server: the built app behind Express, after boot (fakes, migrations, demo data).
+ * `--local-demo` (`npm start`) runs the stand-ins and the demo data unless the settings say otherwise.
+ */
+const { settings } = await boot({ localDemo: process.argv.includes("--local-demo") });
 
 const app = express();
 app.disable("x-powered-by");
 if (settings.TRUST_PROXY) app.set("trust proxy", 1);
+// Oversized bodies are refused before anything reads them.
+app.use(bodyLimit());
 // The app sees Fetch requests without a socket; this header (always overwritten) gives it the peer's address.
 app.use((req, _res, next) => {
   stampPeerAddress(req);
@@ -21,9 +27,10 @@ app.use(express.static("build/client", { maxAge: "1h" }));
 const buildPath = new URL("../../build/server/index.js", import.meta.url).href;
 app.use(createRequestHandler({ build: () => import(buildPath) }));
 
-const server = app.listen(settings.PORT, () => {
-  console.log(`Torqueleaf is serving ${settings.APP_ORIGIN} (port ${settings.PORT})`);
-});
+const listening = () =>
+  console.log(`Torqueleaf is serving ${settings.APP_ORIGIN} (${settings.HOST || "every interface"}, port ${settings.PORT})`);
+// HOST empty: every interface.
+const server = settings.HOST ? app.listen(settings.PORT, settings.HOST, listening) : app.listen(settings.PORT, listening);
 for (const signal of ["SIGINT", "SIGTERM"] as const) {
   process.on(signal, () => {
     server.close();

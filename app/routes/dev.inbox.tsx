@@ -1,11 +1,14 @@
-import { env } from "~/utils/env.server";
+import { env, standIns } from "~/utils/env.server";
 import type { Route } from "./+types/dev.inbox";
 import type { CaughtMail } from "~/services/fakes/mail";
 
-/** The local SMTP catcher's messages; exists only with LOCAL_FAKES=1. `?format=json` for scripts and tests. */
+/**
+ * The local SMTP catcher's messages; exists only while the catcher stands in for mail (LOCAL_FAKES=1
+ * and SMTP_HOST on this machine). `?format=json` for scripts and tests.
+ */
 export async function loader({ request }: Route.LoaderArgs) {
   const settings = env();
-  if (!settings.LOCAL_FAKES) throw new Response("Not found", { status: 404 });
+  if (!standIns(settings).mail) throw new Response("Not found", { status: 404 });
   const response = await fetch(`${settings.MAIL_INBOX_URL}/messages`);
   const { messages } = (await response.json()) as { messages: CaughtMail[] };
   if (new URL(request.url).searchParams.get("format") === "json") return Response.json({ messages });

@@ -79,7 +79,7 @@ describe("checkLockFile", () => {
   });
 });
 
-describe("security/dependency-floors.json", () => {
+describe("app/security/dependency-floors.json", () => {
   it("is well formed and holds the agreed floors and bans", () => {
     const floors = readFloors();
     expect(floorsSchema.safeParse(floors).success).toBe(true);

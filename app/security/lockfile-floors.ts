@@ -4,7 +4,7 @@ import { z } from "zod";
 
 /**
  * Offline dependency check: compares every package in package-lock.json with the floors and bans
- * kept in security/dependency-floors.json. It stands in for `npm audit` where the advisory service
+ * kept in app/security/dependency-floors.json. It stands in for `npm audit` where the advisory service
  * cannot be reached; the list is maintained by hand from published advisories.
  */
 
@@ -94,7 +94,7 @@ export function checkLockFile(lock: LockFile, floors: Floors): Violation[] {
 
 const fromRoot = (path: string) => fileURLToPath(new URL(`../../${path}`, import.meta.url));
 
-export function readFloors(file = fromRoot("security/dependency-floors.json")): Floors {
+export function readFloors(file = fromRoot("app/security/dependency-floors.json")): Floors {
   return floorsSchema.parse(JSON.parse(readFileSync(file, "utf8")));
 }
 

@@ -1,6 +1,7 @@
 import { createServer as createNetServer } from "node:net";
 import type { ViteDevServer } from "vite";
 import { peerAddressPlugin } from "~/services/auth/client-address.server";
+import { bodyLimitPlugin } from "~/services/http/body-limit.server";
 
 async function freePort(): Promise<number> {
   return new Promise((resolve, reject) => {
@@ -33,7 +34,7 @@ export async function startAppServer(
   const vite: ViteDevServer = await createServer({
     logLevel: "error",
     server: { port, strictPort: true, host, hmr: false, watch: null },
-    plugins: [peerAddressPlugin()],
+    plugins: [bodyLimitPlugin(), peerAddressPlugin()],
   });
   await vite.listen();
   return { origin, stop: () => vite.close() };

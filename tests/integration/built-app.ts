@@ -1,0 +1,138 @@
+import { type ChildProcess, spawn, spawnSync } from "node:child_process";
+import { copyFileSync, existsSync, mkdirSync, readdirSync, rmSync, statSync } from "node:fs";
+import { createServer } from "node:net";
+import { join } from "node:path";
+import { fileURLToPath } from "node:url";
+import { BASE_DB, TMP_DIR } from "../support/base-db";
+
+const ROOT = fileURLToPath(new URL("../..", import.meta.url));
+const SERVER_BUILD = join(ROOT, "build/server/index.js");
+
+function newestSource(dir: string): number {
+  let newest = 0;
+  for (const entry of readdirSync(dir, { withFileTypes: true })) {
+    const path = join(dir, entry.name);
+    newest = Math.max(newest, entry.isDirectory() ? newestSource(path) : statSync(path).mtimeMs);
+  }
+  return newest;
+}
+
+/** Builds the app as `npm start` does, unless a build newer than every source file is there. */
+export async function ensureBuild() {
+  const lock = join(TMP_DIR, "build.lock");
+  mkdirSync(TMP_DIR, { recursive: true });
+  for (;;) {
+    try {
+      mkdirSync(lock);
+      break;
+    } catch {
+      await new Promise((r) => setTimeout(r, 500));
+    }
+  }
+  try {
+    if (existsSync(SERVER_BUILD) && statSync(SERVER_BUILD).mtimeMs > newestSource(join(ROOT, "app"))) return;
+    const built = spawnSync("npx", ["react-router", "build"], { cwd: ROOT, encoding: "utf8" });
+    if (built.status !== 0) throw new Error(`react-router build failed:\n${built.stdout}\n${built.stderr}`);
+  } finally {
+    rmSync(lock, { recursive: true, force: true });
+  }
+}
+
+export async function freePort(): Promise<number> {
+  return new Promise((resolve, reject) => {
+    const server = createServer();
+    server.once("error", reject);
+    server.listen(0, "127.0.0.1", () => {
+      const { port } = server.address() as { port: number };
+      server.close(() => resolve(port));
+    });
+  });
+}
+
+export type BuiltApp = {
+  url: string;
+  port: number;
+  output: () => string;
+  exited: Promise<number | null>;
+  stop: () => Promise<void>;
+};
+
+/**
+ * Starts `app/cli/start.ts` (the built app behind Express) in its own process with exactly the
+ * settings given on top of a clean environment, on a free port, and waits until it answers or exits.
+ * `database`: "empty" (a new file) or "demo" (a copy of the migrated demo database).
+ */
+export async function startBuiltApp(
+  settings: Record<string, string>,
+  options: { database?: "empty" | "demo"; args?: string[]; wait?: boolean } = {},
+): Promise<BuiltApp> {
+  const port = await freePort();
+  const dir = join(TMP_DIR, "built", `${port}-${Date.now()}`);
+  mkdirSync(dir, { recursive: true });
+  const database = join(dir, "app.db");
+  if (options.database === "demo") copyFileSync(BASE_DB, database);
+  const child: ChildProcess = spawn(process.execPath, ["--import", "tsx", "app/cli/start.ts", ...(options.args ?? [])], {
+    cwd: ROOT,
+    env: {
+      PATH: process.env.PATH,
+      HOME: process.env.HOME,
+      PORT: String(port),
+      DATABASE_URL: `file:${database}`,
+      LOCAL_FAKES_DIR: dir,
+      ...settings,
+    },
+    stdio: ["ignore", "pipe", "pipe"],
+  });
+  let output = "";
+  child.stdout?.on("data", (chunk) => {
+    output += chunk;
+  });
+  child.stderr?.on("data", (chunk) => {
+    output += chunk;
+  });
+  const exited = new Promise<number | null>((resolve) => child.once("exit", (code) => resolve(code)));
+  const url = `http://127.0.0.1:${port}`;
+  const app: BuiltApp = {
+    url,
+    port,
+    output: () => output,
+    exited,
+    stop: async () => {
+      if (child.exitCode === null && child.signalCode === null) {
+        child.kill("SIGTERM");
+        await exited;
+      }
+    },
+  };
+  if (options.wait === false) return app;
+  const deadline = Date.now() + 90_000;
+  for (;;) {
+    if (child.exitCode !== null) throw new Error(`The app exited during start-up (code ${child.exitCode}):\n${output}`);
+    try {
+      if ((await fetch(`${url}/api/guides`)).ok) return app;
+    } catch {
+      // not listening yet
+    }
+    if (Date.now() > deadline) {
+      await app.stop();
+      throw new Error(`The app did not answer within 90 s:\n${output}`);
+    }
+    await new Promise((r) => setTimeout(r, 250));
+  }
+}
+
+/** The settings of the run's shared stand-ins (tests/global-setup.ts), as real services seen from another app. */
+export function sharedServices() {
+  const keys = [
+    "S3_ENDPOINT",
+    "S3_BUCKET",
+    "SMTP_HOST",
+    "SMTP_PORT",
+    "MAIL_INBOX_URL",
+    "GITHUB_CLIENT_ID",
+    "GITHUB_CLIENT_SECRET",
+    "GITHUB_BASE_URL",
+    "GITHUB_API_URL",
+  ];
+  return Object.fromEntries(keys.map((k) => [k, process.env[k] ?? ""]));
+}
