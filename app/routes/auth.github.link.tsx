@@ -1,11 +1,14 @@
 import { Form, redirect } from "react-router";
 import { z } from "zod";
-import { AuthCard, SubmitButton } from "~/components/auth-form";
+import { AuthCard, Notice, SubmitButton } from "~/components/auth-form";
 import { getDb } from "~/db/client.server";
 import { cancelLink, confirmLink, pendingLink } from "~/services/auth/github-accounts.server";
 import { expiredCookie, linkCookie, returnToCookie } from "~/services/auth/github-flow.server";
+import { unconfirmedPasswordClearedMail } from "~/services/auth/mails.server";
 import { safeRedirect } from "~/services/auth/redirect";
 import { startSession } from "~/services/auth/session.server";
+import { sendInBackground } from "~/services/mail.server";
+import { env } from "~/utils/env.server";
 import type { Route } from "./+types/auth.github.link";
 
 export const meta: Route.MetaFunction = () => [
@@ -22,7 +25,12 @@ export async function loader({ request }: Route.LoaderArgs) {
   const token = await tokenOf(request);
   const pending = token ? await pendingLink(await getDb(), token) : null;
   if (!pending) throw redirect("/login?notice=link-expired");
-  return { name: pending.user.name, email: pending.user.email, login: pending.link.login };
+  return {
+    name: pending.user.name,
+    email: pending.user.email,
+    login: pending.link.login,
+    removesPassword: pending.unclaimed && !!pending.user.passwordHash,
+  };
 }
 
 const answerSchema = z.object({ intent: z.enum(["link", "cancel"], { error: "Choose whether to link the accounts." }) });
@@ -40,9 +48,18 @@ export async function action({ request }: Route.ActionArgs) {
     await cancelLink(db, token);
     return redirect("/login", { headers });
   }
-  const user = await confirmLink(db, token);
-  if (!user) return redirect("/login?notice=link-expired", { headers });
+  const confirmed = await confirmLink(db, token);
+  if (!confirmed) return redirect("/login?notice=link-expired", { headers });
+  const { user, link, passwordCleared } = confirmed;
   headers.append("Set-Cookie", await startSession(request, user.id));
+  if (passwordCleared) {
+    const origin = env().APP_ORIGIN;
+    sendInBackground(
+      unconfirmedPasswordClearedMail(user.email, user.name, link.login, `${origin}/me/account`, `${origin}/reset`),
+    );
+    // The account page says what changed and offers to set a new password.
+    return redirect("/me/account?notice=password-cleared", { headers });
+  }
   return redirect(safeRedirect(await returnToCookie().parse(request.headers.get("cookie"))), { headers });
 }
 
@@ -58,6 +75,13 @@ export default function LinkGitHub({ loaderData, actionData }: Route.ComponentPr
         If that account is yours, link them: from then on either way of signing in opens the same account. If not, cancel and
         nothing changes.
       </p>
+      {loaderData.removesPassword ? (
+        <Notice tone="info">
+          This account&apos;s address was never confirmed, so we cannot tell who chose its password. Linking confirms the address
+          with GitHub&apos;s word, removes the password and signs out every device, so nobody else who knew it can sign in. You
+          can set a new password on your account page afterwards.
+        </Notice>
+      ) : null}
       <Form method="post" className="mt-6 flex gap-3">
         <SubmitButton name="intent" value="link">
           Link and sign in

@@ -36,7 +36,7 @@ export async function accountAction(args: { request: Request; context?: unknown 
         await updateUserName(db, auth.user.id, input.name);
         return { ok: true as const, intent: input.intent, message: "Your name is saved." };
       case "password":
-        await changePassword(auth.user, auth.sessionId, values);
+        await changePassword(args.request, auth.user, auth.sessionId, values);
         return {
           ok: true as const,
           intent: input.intent,
