@@ -17,6 +17,8 @@ type Entry = { d: string; a: string };
 const bind = (deviceId: string, userId: number) =>
   createHash("sha256").update(`device:${deviceId}:${userId}`).digest("base64url").slice(0, 22);
 
+type Settings = Pick<Env, "NODE_ENV" | "APP_ORIGIN" | "SESSION_SECRET">;
+
 let cached: { key: string; cookie: Cookie } | undefined;
 
 /**
@@ -25,7 +27,7 @@ let cached: { key: string; cookie: Cookie } | undefined;
  * SESSION_SECRET, is what makes it unforgeable; it opens nothing by itself, it only lets the
  * owner's own browser past the sign-in limits that a guesser on the same address has used up.
  */
-export function deviceCookie(settings: Pick<Env, "NODE_ENV" | "APP_ORIGIN" | "SESSION_SECRET"> = env()): Cookie {
+export function deviceCookie(settings: Settings = env()): Cookie {
   const key = `${settings.NODE_ENV}|${settings.APP_ORIGIN}|${settings.SESSION_SECRET}`;
   if (cached?.key === key) return cached.cookie;
   const secure = cookieIsSecure(settings);
@@ -43,9 +45,9 @@ export function deviceCookie(settings: Pick<Env, "NODE_ENV" | "APP_ORIGIN" | "SE
   return cookie;
 }
 
-async function entries(request: Request): Promise<Entry[]> {
+async function entries(request: Request, settings: Settings): Promise<Entry[]> {
   // A bad signature parses to null, a foreign shape is ignored.
-  const value = await deviceCookie().parse(request.headers.get("cookie"));
+  const value = await deviceCookie(settings).parse(request.headers.get("cookie"));
   if (!Array.isArray(value)) return [];
   return value
     .filter((e): e is Entry => !!e && typeof e.d === "string" && typeof e.a === "string" && e.d.length <= 64)
@@ -53,16 +55,16 @@ async function entries(request: Request): Promise<Entry[]> {
 }
 
 /** The device id this browser holds for the account, when it signed in to it before; otherwise null. */
-export async function knownDevice(request: Request, userId: number): Promise<string | null> {
-  return (await entries(request)).find((e) => e.a === bind(e.d, userId))?.d ?? null;
+export async function knownDevice(request: Request, userId: number, settings: Settings = env()): Promise<string | null> {
+  return (await entries(request, settings)).find((e) => e.a === bind(e.d, userId))?.d ?? null;
 }
 
 /** The Set-Cookie value that remembers this browser for the account (keeping its other accounts). */
-export async function rememberDevice(request: Request, userId: number): Promise<string> {
-  const existing = await entries(request);
+export async function rememberDevice(request: Request, userId: number, settings: Settings = env()): Promise<string> {
+  const existing = await entries(request, settings);
   const mine = existing.find((e) => e.a === bind(e.d, userId));
   const deviceId = mine?.d ?? randomBytes(16).toString("base64url");
   const others = existing.filter((e) => e !== mine);
   const next = [{ d: deviceId, a: bind(deviceId, userId) }, ...others].slice(0, MAX_ACCOUNTS);
-  return deviceCookie().serialize(next);
+  return deviceCookie(settings).serialize(next);
 }
