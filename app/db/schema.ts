@@ -103,6 +103,25 @@ export const rateLimits = sqliteTable("rate_limits", {
   count: integer().notNull(),
 });
 
+export const SIGN_IN_ATTEMPT_KINDS = ["sign-in", "current-password"] as const;
+
+/** Wrong passwords tried on an account (at sign-in, or on the account page), shown to its owner. */
+export const signInAttempts = sqliteTable(
+  "sign_in_attempts",
+  {
+    id: id(),
+    userId: integer()
+      .notNull()
+      .references(() => users.id, { onDelete: "cascade" }),
+    kind: text({ enum: SIGN_IN_ATTEMPT_KINDS }).notNull(),
+    ipAddress: text().notNull(),
+    /** A short summary such as "Firefox on Linux", never the whole User-Agent string. */
+    browser: text().notNull(),
+    createdAt: createdAt(),
+  },
+  (t) => [index("sign_in_attempts_user_created").on(t.userId, t.createdAt)],
+);
+
 // ── Vehicle catalogue ──────────────────────────────────────────────
 
 export const makes = sqliteTable("makes", {

@@ -56,14 +56,18 @@ export async function revokeSession(db: Db, id: string, userId?: number) {
   return rows.length > 0;
 }
 
-/** Ends every session of a user, or every one but `exceptId` (the one making the change). */
-export async function revokeUserSessions(db: Db, userId: number, exceptId?: string) {
+/** Ends every session of a user, or every one but `exceptId` (the one making the change), as a query for a batch. */
+export function revokeUserSessionsQuery(db: Db, userId: number, exceptId?: string) {
   const conditions = [eq(sessions.userId, userId), isNull(sessions.revokedAt)];
   if (exceptId) conditions.push(ne(sessions.id, exceptId));
-  await db
+  return db
     .update(sessions)
     .set({ revokedAt: new Date() })
     .where(and(...conditions));
+}
+
+export async function revokeUserSessions(db: Db, userId: number, exceptId?: string) {
+  await revokeUserSessionsQuery(db, userId, exceptId);
 }
 
 export async function listLiveSessions(db: Db, userId: number) {

@@ -1,5 +1,5 @@
 import { randomBytes } from "node:crypto";
-import { and, eq, gt, isNull } from "drizzle-orm";
+import { and, eq, gt, inArray, isNull } from "drizzle-orm";
 import { batch } from "~/db/batch.server";
 import type { Db } from "~/db/client.server";
 import { type TOKEN_KINDS, userTokens } from "~/db/schema";
@@ -60,4 +60,12 @@ export async function peekToken(db: Db, token: string, kind: TokenKind) {
 export async function consumeToken(db: Db, token: string, kind: TokenKind) {
   const [row] = await db.update(userTokens).set({ usedAt: new Date() }).where(live(token, kind)).returning();
   return row ?? null;
+}
+
+/** Uses up every open token of these kinds for a user, as a query for a batch (links mailed before a change stop working). */
+export function voidTokensQuery(db: Db, userId: number, kinds: TokenKind[]) {
+  return db
+    .update(userTokens)
+    .set({ usedAt: new Date() })
+    .where(and(eq(userTokens.userId, userId), inArray(userTokens.kind, kinds), isNull(userTokens.usedAt)));
 }

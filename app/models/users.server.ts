@@ -1,12 +1,12 @@
-import { and, asc, count, eq, or, sql } from "drizzle-orm";
+import { and, asc, count, eq, isNull, or, sql } from "drizzle-orm";
 import { batch } from "~/db/batch.server";
 import type { Db } from "~/db/client.server";
-import { oauthAccounts, users } from "~/db/schema";
+import { auditLog, oauthAccounts, users } from "~/db/schema";
 import { hashPassword } from "~/services/password.server";
 import { AppError } from "~/utils/errors";
 import type { Role } from "~/utils/vocab";
 import { auditInsert } from "./audit.server";
-import { revokeUserSessions } from "./sessions.server";
+import { revokeUserSessionsQuery } from "./sessions.server";
 
 export const normalizeEmail = (email: string) => email.trim().toLowerCase();
 
@@ -41,18 +41,31 @@ export async function updateUserName(db: Db, userId: number, name: string) {
   await db.update(users).set({ name: name.trim() }).where(eq(users.id, userId));
 }
 
-export async function setPassword(db: Db, userId: number, password: string) {
-  await db
+/** Sets a password already hashed (hashing is slow, so it happens before the batch this joins). */
+export function setPasswordHashQuery(db: Db, userId: number, passwordHash: string) {
+  return db.update(users).set({ passwordHash }).where(eq(users.id, userId));
+}
+
+/**
+ * Drops the password of an account whose address was never confirmed: whoever chose it may not
+ * own the address. The condition is part of the statement, so a confirmed account keeps its password.
+ */
+export function clearUnconfirmedPasswordQuery(db: Db, userId: number) {
+  return db
     .update(users)
-    .set({ passwordHash: await hashPassword(password) })
+    .set({ passwordHash: null })
+    .where(and(eq(users.id, userId), isNull(users.emailVerifiedAt)));
+}
+
+export function markEmailVerifiedQuery(db: Db, userId: number) {
+  return db
+    .update(users)
+    .set({ emailVerifiedAt: sql`coalesce(${users.emailVerifiedAt}, ${Date.now()})` })
     .where(eq(users.id, userId));
 }
 
 export async function markEmailVerified(db: Db, userId: number) {
-  await db
-    .update(users)
-    .set({ emailVerifiedAt: sql`coalesce(${users.emailVerifiedAt}, ${Date.now()})` })
-    .where(eq(users.id, userId));
+  await markEmailVerifiedQuery(db, userId);
 }
 
 // ── Sign-in with another provider ─────────────────────────────────
@@ -67,22 +80,40 @@ export async function findUserByOAuth(db: Db, provider: string, providerUserId: 
   return row?.user ?? null;
 }
 
-export async function linkOAuthAccount(
-  db: Db,
-  link: { userId: number; provider: string; providerUserId: string; email: string | null; login?: string },
-) {
-  await batch(db, [
+type OAuthLink = { provider: string; providerUserId: string; email: string | null; login?: string };
+
+const linkedAudit = (link: OAuthLink) => ({
+  action: "user.linked-provider",
+  subjectType: "user",
+  data: { provider: link.provider, providerUserId: link.providerUserId, login: link.login ?? null },
+});
+
+/** The link of a provider identity to an account and its audit entry, as queries for a batch. */
+export function linkOAuthAccountQueries(db: Db, link: OAuthLink & { userId: number }) {
+  return [
     db
       .insert(oauthAccounts)
       .values({ userId: link.userId, provider: link.provider, providerUserId: link.providerUserId, email: link.email }),
-    auditInsert(db, {
-      actorId: link.userId,
-      action: "user.linked-provider",
-      subjectType: "user",
-      subjectId: link.userId,
-      data: { provider: link.provider, providerUserId: link.providerUserId, login: link.login ?? null },
-    }),
+    auditInsert(db, { actorId: link.userId, subjectId: link.userId, ...linkedAudit(link) }),
+  ] as const;
+}
+
+/**
+ * A new account that signs in with a provider, created with its link and audit entry in one
+ * batch: the later statements find the new row by its address, so no half-made account is left
+ * behind if one of them fails.
+ */
+export async function createUserWithOAuth(db: Db, input: OAuthLink & { email: string; name: string }) {
+  const email = normalizeEmail(input.email);
+  const newId = sql`(select ${users.id} from ${users} where ${users.email} = ${email})`;
+  await batch(db, [
+    db.insert(users).values({ email, name: input.name.trim(), passwordHash: null, role: "reader", emailVerifiedAt: new Date() }),
+    db.insert(oauthAccounts).values({ userId: newId, provider: input.provider, providerUserId: input.providerUserId, email }),
+    db.insert(auditLog).values({ actorId: newId, subjectId: sql`cast(${newId} as text)`, ...linkedAudit(input) }),
   ]);
+  const user = await findUserByEmail(db, email);
+  if (!user) throw new Error("the account created with its provider link was not found");
+  return user;
 }
 
 export async function listOAuthAccounts(db: Db, userId: number) {
@@ -183,6 +214,7 @@ export async function setDisabled(db: Db, actorId: number, userId: number, disab
       .update(users)
       .set({ disabledAt: disabled ? new Date() : null })
       .where(eq(users.id, userId)),
+    disabled && revokeUserSessionsQuery(db, userId),
     auditInsert(db, {
       actorId,
       action: disabled ? "user.disabled" : "user.enabled",
@@ -191,6 +223,5 @@ export async function setDisabled(db: Db, actorId: number, userId: number, disab
       reason,
     }),
   ]);
-  if (disabled) await revokeUserSessions(db, userId);
   return user;
 }

@@ -6,6 +6,7 @@ import { authenticator } from "~/services/auth/authenticator.server";
 import { z } from "zod";
 import { failureOf } from "~/utils/forms";
 import { formHeaders, handleForm } from "~/utils/forms.server";
+import { rememberDevice } from "~/services/auth/device.server";
 import { redirectIfSignedIn } from "~/services/auth/guards.server";
 import { safeRedirect } from "~/services/auth/redirect";
 import { startSession } from "~/services/auth/session.server";
@@ -27,10 +28,6 @@ const NOTICES: Record<string, { tone: "success" | "info" | "error"; text: string
   "github-no-email": {
     tone: "error",
     text: "GitHub did not share a verified e-mail address, so we cannot create an account from it. Verify an address on GitHub, or sign up here with your e-mail.",
-  },
-  "github-unverified": {
-    tone: "error",
-    text: "An account here already uses that GitHub identity's e-mail address, but GitHub does not report the address as verified, so we will not link them. Sign in with your password instead.",
   },
   "link-expired": { tone: "info", text: "That link request expired or was already answered. Sign in again to continue." },
 };
@@ -65,8 +62,10 @@ export async function action({ request }: Route.ActionArgs) {
     }
     const signed = await authenticator().authenticate("password", request);
     if (signed.kind !== "password") throw new Error("the password strategy returned another kind of sign-in");
-    const cookie = await startSession(request, signed.user.id);
-    return redirect(safeRedirect(input.redirectTo), { headers: { "Set-Cookie": cookie } });
+    const headers = new Headers({ "Set-Cookie": await startSession(request, signed.user.id) });
+    // Remembers this browser, so a guesser on the same address cannot lock the owner out of it.
+    headers.append("Set-Cookie", await rememberDevice(request, signed.user.id));
+    return redirect(safeRedirect(input.redirectTo), { headers });
   });
 }
 

@@ -32,7 +32,7 @@ export async function accountAction(args: { request: Request; context?: unknown 
         await updateUserName(db, auth.user.id, input.name);
         return redirectWithFlash("/me/account", { tone: "success", text: "Your name is saved." });
       case "password":
-        await changePassword(auth.user, auth.sessionId, values);
+        await changePassword(args.request, auth.user, auth.sessionId, values);
         return redirectWithFlash("/me/account", {
           tone: "success",
           text: "Your new password is set. Every other device was signed out.",

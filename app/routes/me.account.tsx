@@ -1,8 +1,10 @@
 import { Form, Link } from "react-router";
 import { Field, Notice, SubmitButton } from "~/components/form";
 import { getDb } from "~/db/client.server";
+import { recentFailedAttempts } from "~/models/rate-limit.server";
 import { listLiveSessions } from "~/models/sessions.server";
 import { listOAuthAccounts } from "~/models/users.server";
+import { formHeaders } from "~/utils/forms.server";
 import { requireUser } from "~/services/auth/guards.server";
 import { getAuth } from "~/services/auth/session.server";
 import { failureOf } from "~/utils/forms";
@@ -15,7 +17,12 @@ export async function loader(args: Route.LoaderArgs) {
   const user = await requireUser(args);
   const auth = (await getAuth(args))!;
   const db = await getDb();
-  const [sessions, linked] = await Promise.all([listLiveSessions(db, user.id), listOAuthAccounts(db, user.id)]);
+  const [sessions, linked, failed] = await Promise.all([
+    listLiveSessions(db, user.id),
+    listOAuthAccounts(db, user.id),
+    recentFailedAttempts(db, user.id),
+  ]);
+  const notice = NOTICES[new URL(args.request.url).searchParams.get("notice") ?? ""] ?? null;
   return {
     account: {
       name: user.name,
@@ -26,10 +33,25 @@ export async function loader(args: Route.LoaderArgs) {
     },
     sessions: sessions.map((s) => ({ ...s, current: s.id === auth.sessionId })),
     linked,
+    failed,
+    notice,
   };
 }
 
+/** Messages other steps send people here with; a fixed list, so an address cannot inject text. */
+const NOTICES: Record<string, string> = {
+  "password-cleared":
+    "Your account is linked to GitHub and your address is confirmed. Its address had never been confirmed, so we removed the password it was created with and signed out every device: if someone else opened the account with your address, they cannot sign in any more. Set a password below to sign in with your e-mail too.",
+};
+
+const ATTEMPT_KINDS: Record<string, string> = {
+  "sign-in": "Wrong password at sign-in",
+  "current-password": "Wrong current password on this page",
+};
+
 export const action = (args: Route.ActionArgs) => accountAction(args);
+
+export const headers = formHeaders;
 
 // A fixed time zone, so the server's page and the browser's render say the same thing.
 const when = (d: Date | string) =>
@@ -45,7 +67,7 @@ function Section({ title, children }: { title: string; children: React.ReactNode
 }
 
 export default function Account({ loaderData, actionData }: Route.ComponentProps) {
-  const { account, sessions, linked } = loaderData;
+  const { account, sessions, linked, failed, notice } = loaderData;
   // Success comes back as a flash message after a redirect; only a refusal is answered here.
   const failure = failureOf(actionData);
   const values = failure?.values ?? {};
@@ -68,6 +90,12 @@ export default function Account({ loaderData, actionData }: Route.ComponentProps
           </>
         ) : null}
       </p>
+
+      {notice ? (
+        <div className="mt-6">
+          <Notice tone="info">{notice}</Notice>
+        </div>
+      ) : null}
 
       <Section title="Name">
         {message("profile")}
@@ -113,7 +141,7 @@ export default function Account({ loaderData, actionData }: Route.ComponentProps
             hint="At least 8 characters. Changing it signs out your other devices."
           />
           <div className="mt-4">
-            <SubmitButton>Change the password</SubmitButton>
+            <SubmitButton>{account.hasPassword ? "Change the password" : "Set the password"}</SubmitButton>
           </div>
         </Form>
         {linked.length ? (
@@ -153,6 +181,36 @@ export default function Account({ loaderData, actionData }: Route.ComponentProps
           <input type="hidden" name="intent" value="everywhere" />
           <SubmitButton tone="danger">Sign out everywhere</SubmitButton>
         </Form>
+      </Section>
+
+      <Section title="Failed attempts">
+        {failed.total === 0 ? (
+          <p className="text-sm text-ink-soft">No wrong passwords were tried on your account in the last 30 days.</p>
+        ) : (
+          <>
+            <p className="text-sm text-ink-soft">
+              {failed.total} failed attempt{failed.total === 1 ? "" : "s"} in the last 30 days
+              {failed.total > failed.attempts.length ? `; the newest ${failed.attempts.length}` : ""}. If they were not you,
+              nobody got in, but a password used anywhere else is worth changing.
+            </p>
+            {failed.addresses.length > 1 ? (
+              <p className="mt-2 text-sm">
+                From {failed.addresses.map((a) => `${a.ipAddress} (${a.tries})`).join(", ")}
+                {failed.addresses.length === 10 ? " and others" : ""}.
+              </p>
+            ) : null}
+            <ul className="mt-3 divide-y divide-rule text-sm">
+              {failed.attempts.map((a, i) => (
+                <li key={`${a.createdAt}-${i}`} className="py-2">
+                  <p className="font-medium">{ATTEMPT_KINDS[a.kind] ?? a.kind}</p>
+                  <p className="text-ink-soft">
+                    {when(a.createdAt)} · from {a.ipAddress} · {a.browser}
+                  </p>
+                </li>
+              ))}
+            </ul>
+          </>
+        )}
       </Section>
     </div>
   );

@@ -9,6 +9,8 @@ import { ACCESSORY_PLACE_LABELS, ACCESSORY_PLACES, type AccessoryPlace, typicalR
 import { INSULATION_RATINGS_C } from "~/engine/wire";
 import { variantsWithNames } from "~/models/catalogue.server";
 import { BATTERY_LOCATION_LABELS, POWERTRAIN_LABELS } from "~/utils/vocab";
+import { readFormData } from "~/utils/forms.server";
+import { forPage } from "~/utils/http.server";
 import type { Route } from "./+types/tools.circuit";
 
 export const meta: Route.MetaFunction = () => [
@@ -40,10 +42,12 @@ export async function loader({ request }: Route.LoaderArgs) {
 
 /** Without JavaScript the form posts here and the page is computed on the server. */
 export async function action({ request }: Route.ActionArgs) {
-  const form = await request.formData();
-  let values = valuesFromForm(form);
-  if (form.get("intent") === "prefill") values = prefill(values, await variantsWithNames(await getDb()));
-  return { values };
+  return forPage(async () => {
+    const form = await readFormData(request);
+    let values = valuesFromForm(form);
+    if (form.get("intent") === "prefill") values = prefill(values, await variantsWithNames(await getDb()));
+    return { values };
+  });
 }
 
 const inputClass = "mt-1 w-full rounded-md border border-rule bg-paper px-3 py-2 text-sm aria-[invalid=true]:border-z-danger";

@@ -17,6 +17,13 @@ const FORM_TYPES = /^(application\/x-www-form-urlencoded|multipart\/form-data)\s
  * fields 413, so a malformed request never reaches an action as a server error.
  */
 export async function readForm(request: Request, options: { maxFields?: number } = {}): Promise<FormValues> {
+  const values: FormValues = {};
+  for (const [key, value] of await readFormData(request, options)) if (typeof value === "string") values[key] = value;
+  return values;
+}
+
+/** The same checks as `readForm`, for an action that needs the FormData itself (repeated names, files). */
+export async function readFormData(request: Request, options: { maxFields?: number } = {}): Promise<FormData> {
   const type = request.headers.get("content-type") ?? "";
   if (!FORM_TYPES.test(type)) throw unsupportedType("Send the form as a form post (urlencoded or multipart).");
   let form: FormData;
@@ -25,13 +32,11 @@ export async function readForm(request: Request, options: { maxFields?: number }
   } catch {
     throw new AppError(400, "malformed-form", "The form could not be read. Reload the page and send it again.");
   }
-  const values: FormValues = {};
   let count = 0;
-  for (const [key, value] of form) {
+  for (const _ of form.keys()) {
     if (++count > (options.maxFields ?? MAX_FORM_FIELDS)) throw tooLarge("The form has more fields than any of ours.");
-    if (typeof value === "string") values[key] = value;
   }
-  return values;
+  return form;
 }
 
 /** Parses form values with a schema: the input, or a 400 AppError with a message per field. */

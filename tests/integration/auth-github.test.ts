@@ -99,10 +99,11 @@ describe("sign-in with GitHub through the stand-in", () => {
   it("refuses to link when GitHub does not report the matching address as verified", async () => {
     const client = app.client();
     const done = await throughGitHub(client, PIA);
-    expect(done.headers.get("location")).toBe("/login?notice=github-unverified");
+    // The same refusal as for an identity with no verified address at all (see auth-github-claim.test.ts).
+    expect(done.headers.get("location")).toBe("/login?notice=github-no-email");
     expect(await client.me()).toBeNull();
-    expect(await (await client.get("/login?notice=github-unverified")).text()).toContain(
-      "does not report the address as verified",
+    expect(await (await client.get("/login?notice=github-no-email")).text()).toContain(
+      "GitHub did not share a verified e-mail address",
     );
   });
 

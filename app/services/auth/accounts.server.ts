@@ -1,15 +1,25 @@
 import { z } from "zod";
 import { getDb } from "~/db/client.server";
 import type { User } from "~/db/schema";
-import { enforceLimits } from "~/models/rate-limit.server";
-import { revokeUserSessions } from "~/models/sessions.server";
+import { batch } from "~/db/batch.server";
+import { auditInsert } from "~/models/audit.server";
+import { enforceLimits, forgive, recordFailedAttempt } from "~/models/rate-limit.server";
+import { revokeUserSessionsQuery } from "~/models/sessions.server";
 import { consumeToken, issueToken, peekToken } from "~/models/user-tokens.server";
-import { createUser, findUserByEmail, getUserById, markEmailVerified, setPassword } from "~/models/users.server";
+import {
+  createUser,
+  findUserByEmail,
+  getUserById,
+  markEmailVerified,
+  markEmailVerifiedQuery,
+  setPasswordHashQuery,
+} from "~/models/users.server";
 import { sendInBackground, sendMail } from "~/services/mail.server";
 import { hashPassword, verifyPassword } from "~/services/password.server";
 import { AppError } from "~/utils/errors";
 import { parseValues } from "~/utils/forms.server";
 import { env } from "~/utils/env.server";
+import { summarizeBrowser } from "./browser-summary";
 import { clientAddress } from "./client-address.server";
 import { currentPasswordField, emailField, nameField, newPasswordField, passwordMatchesIdentity } from "./fields.server";
 import { alreadyRegisteredMail, confirmAddressMail, passwordChangedMail, resetPasswordMail } from "./mails.server";
@@ -95,29 +105,52 @@ export async function completePasswordReset(request: Request, token: string, val
   if (passwordMatchesIdentity(password, owner)) {
     throw new AppError(400, "invalid", "Some fields need attention.", { password: identityProblem });
   }
+  // Hashed before the link is used up, so the slow step cannot leave a used link and no password.
+  const passwordHash = await hashPassword(password);
   const row = await consumeToken(db, token, "reset-password");
   if (!row) throw expired();
-  await setPassword(db, row.userId, password);
-  await markEmailVerified(db, row.userId);
-  await revokeUserSessions(db, row.userId);
+  await batch(db, [
+    setPasswordHashQuery(db, row.userId, passwordHash),
+    markEmailVerifiedQuery(db, row.userId),
+    revokeUserSessionsQuery(db, row.userId),
+    auditInsert(db, { actorId: row.userId, action: "user.password-reset", subjectType: "user", subjectId: row.userId }),
+  ]);
   await sendMail(passwordChangedMail(owner.email, owner.name, link("/reset")));
 }
 
-/** A signed-in member changes their password; every other session of the account ends. */
-export async function changePassword(user: User, sessionId: string, values: Record<string, string>) {
+/**
+ * A signed-in member changes their password; every other session of the account ends. The
+ * current password is limited like sign-in (only wrong ones count), so an open session on a
+ * shared computer cannot be used to guess it, and each wrong one is shown to the owner.
+ */
+export async function changePassword(request: Request, user: User, sessionId: string, values: Record<string, string>) {
   const schema = z.object({
     currentPassword: user.passwordHash ? currentPasswordField : z.string().optional(),
     newPassword: newPasswordField,
   });
   const input = parse(schema, values);
-  if (user.passwordHash && !(await verifyPassword(input.currentPassword ?? "", user.passwordHash))) {
-    throw new AppError(400, "invalid", "Some fields need attention.", { currentPassword: "That is not your current password." });
+  const db = await getDb();
+  if (user.passwordHash) {
+    const counted = await enforceLimits(db, "current-password", { address: address(request), account: String(user.id) });
+    if (!(await verifyPassword(input.currentPassword ?? "", user.passwordHash))) {
+      await recordFailedAttempt(db, {
+        userId: user.id,
+        kind: "current-password",
+        ipAddress: address(request),
+        browser: summarizeBrowser(request.headers.get("user-agent")),
+      });
+      throw new AppError(400, "invalid", "Some fields need attention.", {
+        currentPassword: "That is not your current password.",
+      });
+    }
+    await forgive(db, counted);
   }
   if (passwordMatchesIdentity(input.newPassword, user)) {
     throw new AppError(400, "invalid", "Some fields need attention.", { newPassword: identityProblem });
   }
-  const db = await getDb();
-  await setPassword(db, user.id, input.newPassword);
-  await revokeUserSessions(db, user.id, sessionId);
+  await batch(db, [
+    setPasswordHashQuery(db, user.id, await hashPassword(input.newPassword)),
+    revokeUserSessionsQuery(db, user.id, sessionId),
+  ]);
   await sendMail(passwordChangedMail(user.email, user.name, link("/reset")));
 }

@@ -4,13 +4,15 @@ import { FormStrategy } from "remix-auth-form";
 import { z } from "zod";
 import { getDb } from "~/db/client.server";
 import type { User } from "~/db/schema";
-import { enforceLimits } from "~/models/rate-limit.server";
+import { enforceSignInLimits, forgive, recordFailedAttempt } from "~/models/rate-limit.server";
 import { findUserByEmail } from "~/models/users.server";
 import { hashPassword, verifyPassword } from "~/services/password.server";
 import { AppError } from "~/utils/errors";
 import { parseValues } from "~/utils/forms.server";
 import { env } from "~/utils/env.server";
+import { summarizeBrowser } from "./browser-summary";
 import { clientAddress } from "./client-address.server";
+import { knownDevice } from "./device.server";
 import { currentPasswordField, emailField } from "./fields.server";
 import { createGitHubStrategy, type GitHubProfile } from "./github.server";
 
@@ -31,13 +33,31 @@ async function passwordMatches(user: User | undefined, password: string) {
   return false;
 }
 
-/** E-mail and password: field checks, then the abuse limits, then the password, then the account's state. */
+/**
+ * E-mail and password: field checks, then the abuse limits (a browser that signed in to this
+ * account before has its own allowance), then the password, then the account's state.
+ */
 async function verifyPasswordSignIn({ form, request }: { form: FormData; request: Request }): Promise<Signed> {
   const { email, password } = parseValues(signInSchema, Object.fromEntries(form));
   const db = await getDb();
-  await enforceLimits(db, "sign-in", { address: clientAddress(request, env().TRUST_PROXY), account: email });
+  const address = clientAddress(request, env().TRUST_PROXY);
   const user = await findUserByEmail(db, email);
-  if (!(await passwordMatches(user, password)) || !user) throw new AppError(401, "invalid-credentials", WRONG_CREDENTIALS);
+  const device = user ? await knownDevice(request, user.id) : null;
+  const counted = await enforceSignInLimits(db, { address, account: email, device });
+  if (!(await passwordMatches(user, password)) || !user) {
+    // Kept for the owner to see on their account page; an address without an account has nobody to tell.
+    if (user) {
+      await recordFailedAttempt(db, {
+        userId: user.id,
+        kind: "sign-in",
+        ipAddress: address,
+        browser: summarizeBrowser(request.headers.get("user-agent")),
+      });
+    }
+    throw new AppError(401, "invalid-credentials", WRONG_CREDENTIALS);
+  }
+  // The owner's own sign-ins do not use up the allowance of their address or device.
+  await forgive(db, counted);
   // Past this point the password was right, so saying why the account cannot sign in reveals nothing new.
   if (user.disabledAt) {
     throw new AppError(403, "disabled", "This account has been disabled by an administrator. Write to the editors to ask why.");

@@ -10,6 +10,9 @@ import { startSession } from "./session.server";
 
 const TEN_MINUTES = 10 * 60;
 
+/** The sign-in page's notice for each refusal (the keys of its fixed list of notices). */
+const REFUSED_NOTICE = { disabled: "github-disabled", "no-verified-email": "github-no-email" } as const;
+
 /** Where to go after the round trip to GitHub, kept in a signed cookie for the trip's length. */
 export const returnToCookie = () => flowCookie("tl_return_to", TEN_MINUTES, env());
 /** The pending link's token while the member decides, never in an address bar or a log. */
@@ -64,7 +67,7 @@ export async function finishGitHubSignIn(request: Request): Promise<Response> {
       // The destination waits in its cookie until the member has answered.
       return done("/auth/github/link", [await linkCookie().serialize(outcome.token), await returnToCookie().serialize(returnTo)]);
     case "refused":
-      return done(`/login?notice=github-${outcome.reason === "unverified-match" ? "unverified" : outcome.reason}`);
+      return done(`/login?notice=${REFUSED_NOTICE[outcome.reason]}`);
   }
 }
 

@@ -95,3 +95,29 @@ export function passwordChangedMail(to: string, name: string, resetUrl: string):
     footer: "This notice is sent on every password change.",
   });
 }
+
+/**
+ * Sent when a GitHub identity claimed an account whose address nobody had confirmed: the password
+ * it was created with is gone, so whoever chose it (perhaps not the address's owner) is shut out.
+ */
+export function unconfirmedPasswordClearedMail(
+  to: string,
+  name: string,
+  login: string,
+  accountUrl: string,
+  resetUrl: string,
+): Mail {
+  return layout({
+    to,
+    subject: "Your Torqueleaf account is linked to GitHub and its old password was removed",
+    greeting: `Hello ${name},`,
+    paragraphs: [
+      `Your Torqueleaf account was just linked to the GitHub identity @${login}, which confirmed this address.`,
+      "The address had never been confirmed before, so the password the account was created with was removed and every device was signed out: if someone else opened the account with your address, they can no longer sign in.",
+      "You sign in with GitHub now. To sign in with your e-mail address too, set a new password on your account page.",
+      `If you did not link GitHub yourself, choose a new password at ${resetUrl} and tell an editor.`,
+    ],
+    action: { label: "Open my account page", url: accountUrl },
+    footer: "This notice is sent whenever linking removes a password.",
+  });
+}
