@@ -5,16 +5,27 @@ import { SiteFooter, SiteHeader } from "./components/chrome";
 import { ErrorPage } from "./components/error-page";
 import { crossSiteMiddleware } from "./services/auth/guards.server";
 import { getUser, sessionMiddleware } from "./services/auth/session.server";
+import { useCspNonce } from "./services/http/csp-nonce";
+import { refusalShapeMiddleware, requestShapeMiddleware } from "./services/http/request-shape.server";
+import { securityHeadersMiddleware } from "./services/http/security-headers.server";
 import { env } from "./utils/env.server";
 import { permissionsFor } from "./utils/permissions";
 
 export const links: Route.LinksFunction = () => [{ rel: "icon", href: "/favicon.svg", type: "image/svg+xml" }];
 
 /**
- * Runs before every loader and action of every route, resource routes and /api included: refuse
- * cross-site writes first, then load the session once for the whole request.
+ * Runs before every loader and action of every route, resource routes and /api included: give the
+ * request its CSP nonce and put the security headers on the answer, give refusals their Allow header
+ * and the API's error shape, refuse cross-site writes, then malformed ones (wrong method, body type
+ * or an unreadable body), then load the session once for the whole request.
  */
-export const middleware: Route.MiddlewareFunction[] = [crossSiteMiddleware, sessionMiddleware];
+export const middleware: Route.MiddlewareFunction[] = [
+  securityHeadersMiddleware,
+  refusalShapeMiddleware,
+  crossSiteMiddleware,
+  requestShapeMiddleware,
+  sessionMiddleware,
+];
 
 /** The signed-in member and what they may do, so screens can hide what they cannot use (the server checks again). */
 export async function loader(args: Route.LoaderArgs) {
@@ -33,6 +44,7 @@ export function useRootData() {
 }
 
 export function Layout({ children }: { children: React.ReactNode }) {
+  const nonce = useCspNonce();
   return (
     <html lang="en">
       <head>
@@ -44,8 +56,8 @@ export function Layout({ children }: { children: React.ReactNode }) {
       </head>
       <body className="min-h-screen bg-paper font-sans text-ink flex flex-col">
         {children}
-        <ScrollRestoration />
-        <Scripts />
+        <ScrollRestoration nonce={nonce} />
+        <Scripts nonce={nonce} />
       </body>
     </html>
   );

@@ -2,12 +2,17 @@ import compression from "compression";
 import express from "express";
 import { createRequestHandler } from "@react-router/express";
 import { stampPeerAddress } from "~/services/auth/client-address.server";
+import { refuseUnsupportedMethods } from "~/services/http/request-shape.server";
+import { securityHeadersLayer } from "~/services/http/security-headers.server";
 import { boot } from "./boot";
 
 /** Production-style server: the built app behind Express, after boot (fakes, migrations, demo data). */
 const { settings } = await boot();
 
 const app = express();
+// Security headers on every answer, static files included, and 405 for methods the app never serves.
+app.use(securityHeadersLayer());
+app.use(refuseUnsupportedMethods());
 app.disable("x-powered-by");
 if (settings.TRUST_PROXY) app.set("trust proxy", 1);
 // The app sees Fetch requests without a socket; this header (always overwritten) gives it the peer's address.

@@ -1,6 +1,7 @@
 import { createServer as createNetServer } from "node:net";
 import type { ViteDevServer } from "vite";
 import { peerAddressPlugin } from "~/services/auth/client-address.server";
+import { httpHardeningPlugin } from "~/services/http/security-headers.server";
 
 async function freePort(): Promise<number> {
   return new Promise((resolve, reject) => {
@@ -27,7 +28,7 @@ export async function startAppServer(): Promise<{ origin: string; stop: () => Pr
   const vite: ViteDevServer = await createServer({
     logLevel: "error",
     server: { port, strictPort: true, host: "localhost", hmr: false, watch: null },
-    plugins: [peerAddressPlugin()],
+    plugins: [peerAddressPlugin(), httpHardeningPlugin()],
   });
   await vite.listen();
   return { origin, stop: () => vite.close() };
