@@ -5,7 +5,7 @@ import type { RenderToPipeableStreamOptions } from "react-dom/server";
 import { renderToPipeableStream } from "react-dom/server";
 import type { EntryContext, RouterContextProvider } from "react-router";
 import { ServerRouter } from "react-router";
-import { CspNonce } from "./services/http/csp-nonce";
+import { CspNonce } from "./services/http/csp";
 import { documentNonce } from "./services/http/security-headers.server";
 
 export const streamTimeout = 5_000;

@@ -1,3 +1,5 @@
+// First: the browser's side of the Content-Security-Policy must be in place before any schema is built.
+import { useCspNonce } from "./services/http/csp";
 import { isRouteErrorResponse, Links, Meta, Outlet, Scripts, ScrollRestoration, useRouteLoaderData } from "react-router";
 import type { Route } from "./+types/root";
 import "./app.css";
@@ -5,7 +7,6 @@ import { SiteFooter, SiteHeader } from "./components/chrome";
 import { ErrorPage } from "./components/error-page";
 import { crossSiteMiddleware } from "./services/auth/guards.server";
 import { getUser, sessionMiddleware } from "./services/auth/session.server";
-import { useCspNonce } from "./services/http/csp-nonce";
 import { refusalShapeMiddleware, requestShapeMiddleware } from "./services/http/request-shape.server";
 import { securityHeadersMiddleware } from "./services/http/security-headers.server";
 import { env } from "./utils/env.server";
