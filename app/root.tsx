@@ -52,8 +52,10 @@ export function Layout({ children }: { children: React.ReactNode }) {
         <meta charSet="utf-8" />
         <meta name="viewport" content="width=device-width, initial-scale=1" />
         <meta name="theme-color" content="#17413a" />
+        {/* In development Vite adds the CSS as <style> elements, with the nonce it finds here. */}
+        {import.meta.env.DEV ? <meta property="csp-nonce" nonce={nonce} /> : null}
         <Meta />
-        <Links />
+        <Links nonce={nonce} />
       </head>
       <body className="min-h-screen bg-paper font-sans text-ink flex flex-col">
         {children}

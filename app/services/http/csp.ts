@@ -10,11 +10,20 @@ import { z } from "zod";
 // its probe for that is reported as a violation; in the browser it parses without compiling.
 if (typeof document !== "undefined") z.config({ jitless: true });
 
-/**
- * The request's nonce, provided around the server render by app/entry.server.tsx. In the browser it
- * is undefined: the nonce only matters for the scripts in the server's HTML, and browsers hide it
- * from the page once the policy has been applied.
- */
+/** The request's nonce, provided around the server render by app/entry.server.tsx. */
 export const CspNonce = createContext<string | undefined>(undefined);
 
-export const useCspNonce = () => useContext(CspNonce);
+let browserNonce: string | undefined;
+
+/**
+ * In the browser, the nonce the server rendered, read once from its first element that carries one
+ * (browsers hide the attribute's value but keep the `nonce` property), so hydration renders the same
+ * attributes as the server did.
+ */
+function nonceInDocument(): string | undefined {
+  if (typeof document === "undefined") return undefined;
+  browserNonce ??= document.querySelector<HTMLElement>("[nonce]")?.nonce || undefined;
+  return browserNonce;
+}
+
+export const useCspNonce = () => useContext(CspNonce) ?? nonceInDocument();

@@ -67,7 +67,8 @@ export function contentSecurityPolicy(settings: Settings, nonce: string): string
   const directives: Record<string, (string | null)[]> = {
     "default-src": ["'self'"],
     "script-src": ["'self'", `'nonce-${nonce}'`],
-    "style-src": ["'self'", ...STYLE_HASHES],
+    // The nonce is for the style sheets of the development server (React Router's and Vite's).
+    "style-src": ["'self'", `'nonce-${nonce}'`, ...STYLE_HASHES],
     "img-src": images,
     "font-src": ["'self'"],
     "connect-src": ["'self'"],
