@@ -4,11 +4,21 @@ import { isbot } from "isbot";
 import type { RenderToPipeableStreamOptions } from "react-dom/server";
 import { renderToPipeableStream } from "react-dom/server";
 import type { EntryContext, RouterContextProvider } from "react-router";
-import { ServerRouter } from "react-router";
+import { isRouteErrorResponse, ServerRouter } from "react-router";
 import { CspNonce } from "./services/http/csp";
 import { documentNonce } from "./services/http/security-headers.server";
 
 export const streamTimeout = 5_000;
+
+/**
+ * React Router's default error log, without refusals: a 4xx such as its own 405 for a write to a
+ * route without an action is the client's mistake, and would otherwise fill the log on demand.
+ */
+export function handleError(error: unknown, { request }: { request: Request }) {
+  if (request.signal.aborted) return;
+  if (isRouteErrorResponse(error) && error.status < 500) return;
+  console.error(error);
+}
 
 /**
  * React Router's default Node entry, plus the request's Content-Security-Policy nonce: on React's

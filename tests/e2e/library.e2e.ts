@@ -34,6 +34,11 @@ it("a reader filters the Library by powertrain, opens a guide and sees cautions 
   expect(await page.locator("figure svg title").first().textContent()).toMatch(/wiring/i);
   await screenshot(page, "guide-lamps");
 
+  // The print view adds its own inline style sheet in the browser; the policy allows it by hash.
+  await page.getByRole("link", { name: "Print view" }).click();
+  await page.waitForURL(/print=1/);
+  expect(await page.getByRole("navigation", { name: "Breadcrumb" }).isVisible()).toBe(false);
+
   expect(errors).toEqual([]);
 });
 

@@ -99,7 +99,9 @@ export function securityHeaders(settings: Settings, nonce: string): Record<strin
   };
 }
 
-const isPage = (response: Response) => /^text\/(html|x-script)\b/.test(response.headers.get("content-type") ?? "");
+/** A document, its `.data`, or a redirect (which `.data` turns into a 202 only after the middleware). */
+const isPage = (response: Response) =>
+  /^text\/(html|x-script)\b/.test(response.headers.get("content-type") ?? "") || (response.status >= 300 && response.status < 400);
 
 function isSignedIn(context: Readonly<RouterContextProvider>): boolean {
   try {
@@ -188,6 +190,8 @@ export function securityHeadersLayer(): NodeHandler {
 export function httpHardeningPlugin() {
   return {
     name: "torqueleaf-http-hardening",
+    // Vite's own CORS answers OPTIONS for other local origins; the app serves no other origin.
+    config: () => ({ server: { cors: false } }),
     configureServer(server: { middlewares: { use: (fn: NodeHandler) => void } }) {
       server.middlewares.use(securityHeadersLayer());
       server.middlewares.use(refuseUnsupportedMethods());
