@@ -52,18 +52,20 @@ const MALFORMED: { name: string; type: string | null; body: Blob }[] = [
 
 /** A raw request, for methods fetch() refuses to send (TRACE). */
 function raw(method: string, path: string, headers: Record<string, string>) {
-  return new Promise<{ status: number; headers: Record<string, string | string[] | undefined>; body: string }>((resolve, reject) => {
-    const req = httpRequest(`${app.origin}${path}`, { method, headers }, (res) => {
-      let body = "";
-      res.setEncoding("utf8");
-      res.on("data", (chunk) => {
-        body += chunk;
+  return new Promise<{ status: number; headers: Record<string, string | string[] | undefined>; body: string }>(
+    (resolve, reject) => {
+      const req = httpRequest(`${app.origin}${path}`, { method, headers }, (res) => {
+        let body = "";
+        res.setEncoding("utf8");
+        res.on("data", (chunk) => {
+          body += chunk;
+        });
+        res.on("end", () => resolve({ status: res.statusCode ?? 0, headers: res.headers, body }));
       });
-      res.on("end", () => resolve({ status: res.statusCode ?? 0, headers: res.headers, body }));
-    });
-    req.on("error", reject);
-    req.end();
-  });
+      req.on("error", reject);
+      req.end();
+    },
+  );
 }
 
 async function targets(route: RouteInfo) {

@@ -52,8 +52,14 @@ async function walk(client: TestClient, route: RouteInfo, signedIn: boolean): Pr
 describe("security headers", () => {
   it("has a way to reach every route in app/routes.ts", () => {
     const patterns = routes.map((r) => r.pattern);
-    expect(patterns.filter((p) => !ROUTE_PATHS[p]), "routes without a path in tests/support/route-walk.ts").toEqual([]);
-    expect(Object.keys(ROUTE_PATHS).filter((p) => !patterns.includes(p)), "paths for routes that no longer exist").toEqual([]);
+    expect(
+      patterns.filter((p) => !ROUTE_PATHS[p]),
+      "routes without a path in tests/support/route-walk.ts",
+    ).toEqual([]);
+    expect(
+      Object.keys(ROUTE_PATHS).filter((p) => !patterns.includes(p)),
+      "paths for routes that no longer exist",
+    ).toEqual([]);
   });
 
   it("puts them on every answer of every route for a visitor", async () => {

@@ -101,7 +101,8 @@ export function securityHeaders(settings: Settings, nonce: string): Record<strin
 
 /** A document, its `.data`, or a redirect (which `.data` turns into a 202 only after the middleware). */
 const isPage = (response: Response) =>
-  /^text\/(html|x-script)\b/.test(response.headers.get("content-type") ?? "") || (response.status >= 300 && response.status < 400);
+  /^text\/(html|x-script)\b/.test(response.headers.get("content-type") ?? "") ||
+  (response.status >= 300 && response.status < 400);
 
 function isSignedIn(context: Readonly<RouterContextProvider>): boolean {
   try {
