@@ -1,3 +1,5 @@
+// First: the browser's side of the Content-Security-Policy must be in place before any schema is built.
+import { useCspNonce } from "./services/http/csp";
 import { data, isRouteErrorResponse, Links, Meta, Outlet, Scripts, ScrollRestoration } from "react-router";
 import type { Route } from "./+types/root";
 import "./app.css";
@@ -6,6 +8,8 @@ import { ErrorPage } from "./components/error-page";
 import { FlashBanner } from "./components/form";
 import { crossSiteMiddleware } from "./services/auth/guards.server";
 import { getUser, sessionMiddleware } from "./services/auth/session.server";
+import { refusalShapeMiddleware, requestShapeMiddleware } from "./services/http/request-shape.server";
+import { securityHeadersMiddleware } from "./services/http/security-headers.server";
 import { env, standIns } from "./utils/env.server";
 import { takeFlash } from "./utils/forms.server";
 import { permissionsFor } from "./utils/permissions";
@@ -14,10 +18,18 @@ import type { RootData } from "./utils/root-data";
 export const links: Route.LinksFunction = () => [{ rel: "icon", href: "/favicon.svg", type: "image/svg+xml" }];
 
 /**
- * Runs before every loader and action of every route, resource routes and /api included: refuse
- * cross-site writes first, then load the session once for the whole request.
+ * Runs before every loader and action of every route, resource routes and /api included: give the
+ * request its CSP nonce and put the security headers on the answer, give refusals their Allow header
+ * and the API's error shape, refuse cross-site writes, then malformed ones (wrong method, body type
+ * or an unreadable body), then load the session once for the whole request.
  */
-export const middleware: Route.MiddlewareFunction[] = [crossSiteMiddleware, sessionMiddleware];
+export const middleware: Route.MiddlewareFunction[] = [
+  securityHeadersMiddleware,
+  refusalShapeMiddleware,
+  crossSiteMiddleware,
+  requestShapeMiddleware,
+  sessionMiddleware,
+];
 
 /** The signed-in member and what they may do, so screens can hide what they cannot use (the server checks again). */
 export async function loader(args: Route.LoaderArgs) {
@@ -35,19 +47,22 @@ export async function loader(args: Route.LoaderArgs) {
 }
 
 export function Layout({ children }: { children: React.ReactNode }) {
+  const nonce = useCspNonce();
   return (
     <html lang="en">
       <head>
         <meta charSet="utf-8" />
         <meta name="viewport" content="width=device-width, initial-scale=1" />
         <meta name="theme-color" content="#17413a" />
+        {/* In development Vite adds the CSS as <style> elements, with the nonce it finds here. */}
+        {import.meta.env.DEV ? <meta property="csp-nonce" nonce={nonce} /> : null}
         <Meta />
-        <Links />
+        <Links nonce={nonce} />
       </head>
       <body className="min-h-screen bg-paper font-sans text-ink flex flex-col">
         {children}
-        <ScrollRestoration />
-        <Scripts />
+        <ScrollRestoration nonce={nonce} />
+        <Scripts nonce={nonce} />
       </body>
     </html>
   );

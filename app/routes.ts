@@ -24,5 +24,7 @@ export default [
   route("contributor-terms", "routes/contributor-terms.tsx"),
   route("admin/users", "routes/admin.users.tsx"),
   route("api/me", "routes/api.me.ts"),
+  // Any other /api address answers in the API's JSON error shape, not with the HTML 404 page.
+  route("api/*", "routes/api.not-found.ts"),
   route("*", "routes/not-found.tsx"),
 ] satisfies RouteConfig;

@@ -1,6 +1,7 @@
 import { createServer } from "vite";
 import { peerAddressPlugin } from "~/services/auth/client-address.server";
 import { bodyLimitPlugin } from "~/services/http/body-limit.server";
+import { httpHardeningPlugin } from "~/services/http/security-headers.server";
 import { boot } from "./boot";
 
 /** Development server: boot (fakes, migrations, demo data), then Vite with React Router's plugin. */
@@ -8,7 +9,7 @@ const { settings } = await boot();
 const vite = await createServer({
   // HOST empty: every interface.
   server: { port: settings.PORT, host: settings.HOST || true, strictPort: true },
-  plugins: [bodyLimitPlugin(), peerAddressPlugin()],
+  plugins: [bodyLimitPlugin(), peerAddressPlugin(), httpHardeningPlugin()],
 });
 await vite.listen();
 vite.printUrls();

@@ -3,6 +3,8 @@ import express from "express";
 import { createRequestHandler } from "@react-router/express";
 import { stampPeerAddress } from "~/services/auth/client-address.server";
 import { bodyLimit } from "~/services/http/body-limit.server";
+import { refuseUnsupportedMethods } from "~/services/http/request-shape.server";
+import { securityHeadersLayer } from "~/services/http/security-headers.server";
 import { boot } from "./boot";
 
 /**
@@ -12,6 +14,9 @@ import { boot } from "./boot";
 const { settings } = await boot({ localDemo: process.argv.includes("--local-demo") });
 
 const app = express();
+// Security headers on every answer, static files included, and 405 for methods the app never serves.
+app.use(securityHeadersLayer());
+app.use(refuseUnsupportedMethods());
 app.disable("x-powered-by");
 if (settings.TRUST_PROXY) app.set("trust proxy", 1);
 // Oversized bodies are refused before anything reads them.

@@ -8,6 +8,8 @@ const COPY: Record<number, { title: string; body: string }> = {
     title: "No guide or page here",
     body: "The address may be mistyped, or the guide may have been unpublished while its author revises it.",
   },
+  405: { title: "Not something this address does", body: "This page can be opened, and its forms sent, but not that." },
+  415: { title: "That form arrived in a shape we cannot read", body: "Send it again from the page itself." },
   500: { title: "Something went wrong on our side", body: "The error has been logged. Try again in a moment." },
 };
 

@@ -13,6 +13,10 @@ const RAIL = 70;
 const COIL = 160;
 const RETURN = 250;
 
+/** The diagram's own style sheet; the Content-Security-Policy allows exactly this text by its hash. */
+export const DIAGRAM_STYLE =
+  ".tl-diagram .tl-heading{font-size:13px;font-weight:600}.tl-diagram .tl-terminal{font-weight:600}.tl-diagram .tl-note{font-size:10px;opacity:.8}.tl-diagram .tl-link{stroke-width:1}";
+
 function line(x1: number, y1: number, x2: number, y2: number, cls = "tl-wire"): string {
   return `<line class="${cls}" x1="${x1}" y1="${y1}" x2="${x2}" y2="${y2}"/>`;
 }
@@ -157,7 +161,7 @@ export function wiringDiagramSvg(input: DiagramInput, result: CircuitResult, opt
     `<svg xmlns="http://www.w3.org/2000/svg" class="tl-diagram" viewBox="0 0 ${WIDTH} ${HEIGHT}" width="${WIDTH}" height="${HEIGHT}" role="img" aria-labelledby="${id}-title ${id}-desc" fill="none" stroke="currentColor" stroke-width="2" stroke-linecap="round" font-family="system-ui, sans-serif" font-size="11">`,
     `<title id="${id}-title">${escapeXml(`Wiring diagram: ${heading}`)}</title>`,
     `<desc id="${id}-desc">${escapeXml(desc)}</desc>`,
-    `<style>.tl-diagram .tl-heading{font-size:13px;font-weight:600}.tl-diagram .tl-terminal{font-weight:600}.tl-diagram .tl-note{font-size:10px;opacity:.8}.tl-diagram .tl-link{stroke-width:1}</style>`,
+    `<style>${DIAGRAM_STYLE}</style>`,
     ...parts,
     `</svg>`,
   ].join("");

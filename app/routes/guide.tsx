@@ -2,6 +2,7 @@ import { Link } from "react-router";
 import { CalloutView } from "~/components/callouts";
 import { SafetyNotice } from "~/components/chrome";
 import { FitmentBadge } from "~/components/fitment";
+import { PRINT_STYLE } from "~/components/print-style";
 import { getDb } from "~/db/client.server";
 import { getPublishedGuide } from "~/models/library.server";
 import { getStorage } from "~/services/storage.server";
@@ -57,11 +58,7 @@ export default function GuidePage({ loaderData }: Route.ComponentProps) {
     <article className="mx-auto max-w-6xl px-6 py-10">
       {print ? (
         // The print view: no site chrome, one column, every photo loaded.
-        <style>
-          {
-            ".no-print{display:none!important}.tl-guide-grid{display:block!important}.tl-guide-grid aside{position:static;margin-top:2rem}.tl-guide-grid figure{max-width:30rem;break-inside:avoid}"
-          }
-        </style>
+        <style>{PRINT_STYLE}</style>
       ) : null}
       <nav aria-label="Breadcrumb" className="no-print text-sm text-ink-soft">
         <Link to="/" className="hover:underline">

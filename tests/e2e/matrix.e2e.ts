@@ -65,7 +65,7 @@ const MATRIX: Record<string, Probe[]> = {
   ],
   "/logout": [
     { path: "/logout", expect: signedIn(200, 302) },
-    { method: "POST", path: "/logout", freshSession: true, expect: all(302) },
+    { method: "POST", path: "/logout", form: {}, freshSession: true, expect: all(302) },
   ],
   "/verify/:token": [
     { path: `/verify/${badToken}`, expect: all(200) },
@@ -83,7 +83,7 @@ const MATRIX: Record<string, Probe[]> = {
   ],
   "/auth/github": [
     { path: "/auth/github", expect: all(302) },
-    { method: "POST", path: "/auth/github", expect: all(302) },
+    { method: "POST", path: "/auth/github", form: {}, expect: all(302) },
   ],
   "/auth/github/callback": [{ path: "/auth/github/callback?code=x&state=y", expect: all(302) }],
   "/auth/github/link": [
@@ -103,10 +103,11 @@ const MATRIX: Record<string, Probe[]> = {
     { path: "/admin/users", expect: only(["admin"], 200, 403, 302) },
     { method: "POST", path: "/admin/users", form: { intent: "none" }, expect: only(["admin"], 400, 403, 302) },
   ],
-  "/*": [
-    { path: "/no-such-page", expect: all(404) },
+  "/api/*": [
     { path: "/api/no-such-endpoint", expect: all(404) },
+    { method: "POST", path: "/api/no-such-endpoint", json: {}, expect: all(404) },
   ],
+  "/*": [{ path: "/no-such-page", expect: all(404) }],
 };
 
 const sessions = new Map<Who, string | null>();

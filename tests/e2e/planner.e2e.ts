@@ -46,7 +46,7 @@ it("the planner computes as you type, explains and draws the circuit", async () 
 
 it("works without JavaScript as a plain form post", async () => {
   const noScript = await launchBrowser({ javaScriptEnabled: false });
-  const page = await noScript.newPage();
+  const { page, errors } = await openPage(noScript);
   await page.goto(`${origin}/tools/circuit`);
   await page.getByLabel("Load power (W)").fill("110");
   await page.getByLabel("One-way run (m)").fill("5");
@@ -59,4 +59,5 @@ it("works without JavaScript as a plain form post", async () => {
   expect(text).toMatch(/15 A/);
   expect(text).toMatch(/12 AWG/);
   await noScript.close();
+  expect(errors).toEqual([]);
 });

@@ -2,6 +2,7 @@ import { createServer as createNetServer } from "node:net";
 import type { ViteDevServer } from "vite";
 import { peerAddressPlugin } from "~/services/auth/client-address.server";
 import { bodyLimitPlugin } from "~/services/http/body-limit.server";
+import { httpHardeningPlugin } from "~/services/http/security-headers.server";
 
 async function freePort(): Promise<number> {
   return new Promise((resolve, reject) => {
@@ -34,7 +35,7 @@ export async function startAppServer(
   const vite: ViteDevServer = await createServer({
     logLevel: "error",
     server: { port, strictPort: true, host, hmr: false, watch: null },
-    plugins: [bodyLimitPlugin(), peerAddressPlugin()],
+    plugins: [bodyLimitPlugin(), peerAddressPlugin(), httpHardeningPlugin()],
   });
   await vite.listen();
   return { origin, stop: () => vite.close() };
