@@ -69,7 +69,7 @@ export async function loader({ params }: Route.LoaderArgs) {
       "cache-control": "public, max-age=31536000, immutable",
       "x-content-type-options": "nosniff",
       // Opened on its own, the file is an inert image: no scripts, no requests, no plugins.
-      "content-security-policy": "default-src 'none'; style-src 'unsafe-inline'; sandbox",
+      "content-security-policy": "default-src 'none'; style-src 'unsafe-inline'; frame-ancestors 'none'; sandbox",
       ...(object.contentLength ? { "content-length": String(object.contentLength) } : {}),
     },
   });

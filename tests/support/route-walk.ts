@@ -107,20 +107,28 @@ export function securityProblems(
     for (const source of sources) if (!listed?.includes(source)) fail(`${directive} lacks ${source}`);
   };
   if (!headers.has("content-security-policy")) fail("no Content-Security-Policy");
-  has("default-src", "'self'");
-  has("object-src", "'none'");
-  has("frame-ancestors", "'none'");
-  has("base-uri", "'self'");
-  has("form-action", "'self'");
-  has("img-src", "'self'", "data:", ...(options.extraImgOrigin ? [options.extraImgOrigin] : []));
-  has("font-src", "'self'");
-  has("connect-src", "'self'");
-  const scripts = csp.get("script-src") ?? [];
-  const nonces = scripts.filter((s) => /^'nonce-[A-Za-z0-9+/]{22}==?'$/.test(s));
-  if (nonces.length !== 1) fail(`script-src needs exactly one nonce: ${scripts.join(" ")}`);
-  for (const directive of ["script-src", "style-src"]) {
-    const sources = csp.get(directive) ?? [];
-    if (sources.includes("'unsafe-inline'") || sources.includes("'unsafe-eval'")) fail(`${directive} allows unsafe code`);
+  // A stored file (a /media photo) gets a narrower policy than a page: nothing may load, it runs
+  // sandboxed, and no other site may frame it.
+  const sandboxed = csp.has("sandbox") && !!csp.get("default-src")?.includes("'none'");
+  if (sandboxed) {
+    has("frame-ancestors", "'none'");
+    if (csp.get("script-src")?.length) fail("a sandboxed file may run no scripts");
+  } else {
+    has("default-src", "'self'");
+    has("object-src", "'none'");
+    has("frame-ancestors", "'none'");
+    has("base-uri", "'self'");
+    has("form-action", "'self'");
+    has("img-src", "'self'", "data:", ...(options.extraImgOrigin ? [options.extraImgOrigin] : []));
+    has("font-src", "'self'");
+    has("connect-src", "'self'");
+    const scripts = csp.get("script-src") ?? [];
+    const nonces = scripts.filter((s) => /^'nonce-[A-Za-z0-9+/]{22}==?'$/.test(s));
+    if (nonces.length !== 1) fail(`script-src needs exactly one nonce: ${scripts.join(" ")}`);
+    for (const directive of ["script-src", "style-src"]) {
+      const sources = csp.get(directive) ?? [];
+      if (sources.includes("'unsafe-inline'") || sources.includes("'unsafe-eval'")) fail(`${directive} allows unsafe code`);
+    }
   }
   if (headers.get("x-content-type-options") !== "nosniff") fail("no X-Content-Type-Options: nosniff");
   if (headers.get("referrer-policy") !== "strict-origin-when-cross-origin") fail("wrong Referrer-Policy");
@@ -133,7 +141,8 @@ export function securityProblems(
 
   const isHtml = /^text\/html/.test(headers.get("content-type") ?? "");
   if (isHtml) {
-    const nonce = nonces[0]?.slice("'nonce-".length, -1);
+    const scriptSources = csp.get("script-src") ?? [];
+    const nonce = scriptSources.find((s) => s.startsWith("'nonce-"))?.slice("'nonce-".length, -1);
     for (const tag of body.match(/<script\b[^>]*>/g) ?? []) {
       if (!tag.includes(`nonce="${nonce}"`)) fail(`a script without the request's nonce: ${tag.slice(0, 80)}`);
     }

@@ -135,6 +135,9 @@ export const securityHeadersMiddleware: MiddlewareFunction<Response> = async ({ 
   context.set(nonceContext, nonce);
   const secure = (response: Response) => {
     const headers = securityHeaders(env(), nonce);
+    // A route that sets its own, narrower policy keeps it (/media's photos are sandboxed), and a
+    // document keeps the policy it was rendered with.
+    if (response.headers.has("content-security-policy")) delete headers["Content-Security-Policy"];
     if (isPage(response) && (isSignedIn(context) || response.headers.has("set-cookie"))) {
       headers["Cache-Control"] = "private, no-store";
     }
