@@ -37,7 +37,7 @@ it("a reader filters the Library by powertrain, opens a guide and sees cautions 
   // The print view adds its own inline style sheet in the browser; the policy allows it by hash.
   await page.getByRole("link", { name: "Print view" }).click();
   await page.waitForURL(/print=1/);
-  expect(await page.getByRole("navigation", { name: "Breadcrumb" }).isVisible()).toBe(false);
+  await expect.poll(async () => page.getByRole("navigation", { name: "Breadcrumb" }).isVisible()).toBe(false);
 
   expect(errors).toEqual([]);
 });
