@@ -1,21 +1,12 @@
 import { describe, expect, it } from "vitest";
 import { z } from "zod";
 import { AppError } from "./errors";
+import { refusal } from "./refusal.test-support";
 import { formFailure, handleForm, MAX_FORM_FIELDS, readForm } from "./forms.server";
 import { fieldErrors, schemaKeys } from "./validation";
 
 const formPost = (body: BodyInit, type?: string) =>
   new Request("http://localhost/x", { method: "POST", body, headers: type ? { "content-type": type } : {} });
-
-async function refusal(promise: Promise<unknown>) {
-  try {
-    await promise;
-  } catch (error) {
-    if (error instanceof AppError) return error;
-    throw error;
-  }
-  throw new Error("expected a refusal");
-}
 
 describe("fieldErrors", () => {
   it("keys every message by the field's full dotted path, first message only", () => {

@@ -1,6 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { z } from "zod";
 import { AppError } from "./errors";
+import { refusal } from "./refusal.test-support";
 import { apiHandler, readJson } from "./http.server";
 
 const schema = z.object({ name: z.string().min(2, "Name it"), items: z.array(z.object({ qty: z.number().int() })) });
@@ -11,16 +12,6 @@ const post = (body: BodyInit | null, type?: string, headers: Record<string, stri
     body,
     headers: { ...(type ? { "content-type": type } : {}), ...headers },
   });
-
-async function refusal(promise: Promise<unknown>) {
-  try {
-    await promise;
-  } catch (error) {
-    if (error instanceof AppError) return error;
-    throw error;
-  }
-  throw new Error("expected a refusal");
-}
 
 describe("readJson", () => {
   it("returns the parsed body", async () => {
