@@ -1,11 +1,10 @@
 import { ErrorPage } from "~/components/error-page";
-import { AppError, notFound } from "~/utils/errors";
-import { errorResponse, pageErrorResponse } from "~/utils/http.server";
+import { notFound } from "~/utils/errors";
+import { pageErrorResponse } from "~/utils/http.server";
 import type { Route } from "./+types/not-found";
 
-export function loader({ request }: Route.LoaderArgs) {
-  const path = new URL(request.url).pathname;
-  if (path.startsWith("/api/")) throw errorResponse(new AppError(404, "not-found", `No API route at ${path}`));
+/** Every address without a route of its own; /api addresses have theirs (routes/api.not-found.ts). */
+export function loader() {
   throw pageErrorResponse(notFound());
 }
 

@@ -4,6 +4,7 @@ import { flashCookie } from "~/services/auth/cookie.server";
 import { env } from "./env.server";
 import { AppError, invalid, tooLarge, unsupportedType } from "./errors";
 import { type Flash, type FormFailure, type FormValues, isSecretField } from "./forms";
+import { retryHeaders } from "./http.server";
 import { fieldErrors, schemaKeys } from "./validation";
 
 /** More fields than any of our forms has (the guide editor's included): past it the post is refused. */
@@ -53,12 +54,8 @@ export function parseValues<S extends z.ZodType>(schema: S, values: Record<strin
 export function formFailure(error: AppError, values: FormValues, keep: readonly string[]) {
   const kept: FormValues = {};
   for (const name of keep) if (name in values && !isSecretField(name)) kept[name] = values[name];
-  const retryAfter = error.extra?.retryAfter;
   const body: FormFailure = { ok: false, code: error.code, message: error.message, fields: error.fields, values: kept };
-  return data(body, {
-    status: error.status,
-    headers: typeof retryAfter === "number" ? { "Retry-After": String(retryAfter) } : undefined,
-  });
+  return data(body, { status: error.status, headers: retryHeaders(error.extra) });
 }
 
 /**

@@ -11,8 +11,15 @@ export function apiError(
   fields?: Record<string, string>,
   extra?: Record<string, unknown>,
 ) {
-  const headers = typeof extra?.retryAfter === "number" ? { "Retry-After": String(extra.retryAfter) } : undefined;
-  return Response.json({ error: { code, message, ...(fields ? { fields } : {}), ...extra } }, { status, headers });
+  return Response.json(
+    { error: { code, message, ...(fields ? { fields } : {}), ...extra } },
+    { status, headers: retryHeaders(extra) },
+  );
+}
+
+/** A rate-limit refusal (`extra.retryAfter` in seconds) says when to come back; other refusals send no header. */
+export function retryHeaders(extra: Record<string, unknown> | undefined): HeadersInit | undefined {
+  return typeof extra?.retryAfter === "number" ? { "Retry-After": String(extra.retryAfter) } : undefined;
 }
 
 /** An AppError as the API answers it. */
@@ -38,11 +45,7 @@ export function apiHandler<A>(handler: (args: A) => Promise<Response>): (args: A
 
 /** An AppError as a thrown page response: the route's ErrorBoundary shows its message in plain words. */
 export function pageErrorResponse(error: AppError) {
-  const retryAfter = error.extra?.retryAfter;
-  return data(error.message, {
-    status: error.status,
-    headers: typeof retryAfter === "number" ? { "Retry-After": String(retryAfter) } : undefined,
-  });
+  return data(error.message, { status: error.status, headers: retryHeaders(error.extra) });
 }
 
 /** Runs a page loader's work; an AppError (404, 403 …) is thrown on as the page response for it. */

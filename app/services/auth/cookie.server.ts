@@ -19,54 +19,47 @@ export function cookieName(base: string, secure: boolean) {
   return secure ? `__Host-${base}` : base;
 }
 
-let cached: { key: string; cookie: Cookie } | undefined;
+type CookieSettings = Pick<Env, "NODE_ENV" | "APP_ORIGIN" | "SESSION_SECRET">;
+
+const built = new Map<string, Cookie>();
 
 /**
- * The session cookie holds only an opaque random id, signed so that a tampered value is ignored
- * without a database look-up. SESSION_SECRET is comma-separated: the first secret signs, every one
- * is accepted, so a new secret can be put in front and the old one dropped a cookie-lifetime later.
+ * A cookie signed with SESSION_SECRET, HttpOnly, SameSite=Lax, path `/`, and Secure with the
+ * `__Host-` prefix wherever that works (see `cookieIsSecure`). SESSION_SECRET is comma-separated:
+ * the first secret signs, every one is accepted, so a new secret can be put in front and the old
+ * one dropped a cookie-lifetime later. Built once per name, lifetime and settings.
  */
-export function sessionCookie(settings: Pick<Env, "NODE_ENV" | "APP_ORIGIN" | "SESSION_SECRET">): Cookie {
-  const key = `${settings.NODE_ENV}|${settings.APP_ORIGIN}|${settings.SESSION_SECRET}`;
-  if (cached?.key === key) return cached.cookie;
-  const secure = cookieIsSecure(settings);
-  const cookie = createCookie(cookieName("tl_session", secure), {
-    httpOnly: true,
-    sameSite: "lax",
-    secure,
-    path: "/",
-    maxAge: SESSION_DAYS * 24 * 60 * 60,
-    secrets: settings.SESSION_SECRET.split(",")
-      .map((s) => s.trim())
-      .filter(Boolean),
-  });
-  cached = { key, cookie };
+export function signedCookie(base: string, maxAgeSeconds: number, settings: CookieSettings): Cookie {
+  const key = `${base}|${maxAgeSeconds}|${settings.NODE_ENV}|${settings.APP_ORIGIN}|${settings.SESSION_SECRET}`;
+  let cookie = built.get(key);
+  if (!cookie) {
+    const secure = cookieIsSecure(settings);
+    cookie = createCookie(cookieName(base, secure), {
+      httpOnly: true,
+      sameSite: "lax",
+      secure,
+      path: "/",
+      maxAge: maxAgeSeconds,
+      secrets: settings.SESSION_SECRET.split(",")
+        .map((s) => s.trim())
+        .filter(Boolean),
+    });
+    built.set(key, cookie);
+  }
   return cookie;
 }
 
-/**
- * A short-lived signed cookie for one step of a flow (where to return after GitHub, which link is
- * waiting for confirmation), with the same flags as the session cookie.
- */
-export function flowCookie(
-  base: string,
-  maxAgeSeconds: number,
-  settings: Pick<Env, "NODE_ENV" | "APP_ORIGIN" | "SESSION_SECRET">,
-) {
-  const secure = cookieIsSecure(settings);
-  return createCookie(cookieName(base, secure), {
-    httpOnly: true,
-    sameSite: "lax",
-    secure,
-    path: "/",
-    maxAge: maxAgeSeconds,
-    secrets: settings.SESSION_SECRET.split(",")
-      .map((s) => s.trim())
-      .filter(Boolean),
-  });
+/** The session cookie holds only an opaque random id, signed so that a tampered value is ignored without a database look-up. */
+export function sessionCookie(settings: CookieSettings): Cookie {
+  return signedCookie("tl_session", SESSION_DAYS * 24 * 60 * 60, settings);
+}
+
+/** A short-lived signed cookie for one step of a flow (where to return after GitHub, which link is waiting for confirmation). */
+export function flowCookie(base: string, maxAgeSeconds: number, settings: CookieSettings) {
+  return signedCookie(base, maxAgeSeconds, settings);
 }
 
 /** The one-time message after a redirect-after-post (signed, so a page shows only our own words). */
-export function flashCookie(settings: Pick<Env, "NODE_ENV" | "APP_ORIGIN" | "SESSION_SECRET">) {
-  return flowCookie("tl_flash", 60, settings);
+export function flashCookie(settings: CookieSettings) {
+  return signedCookie("tl_flash", 60, settings);
 }

@@ -1,7 +1,7 @@
 import { createHash, randomBytes } from "node:crypto";
-import { type Cookie, createCookie } from "react-router";
+import type { Cookie } from "react-router";
 import { env, type Env } from "~/utils/env.server";
-import { cookieIsSecure, cookieName } from "./cookie.server";
+import { signedCookie } from "./cookie.server";
 
 /** How long a browser is remembered as one its owner signed in from. */
 export const DEVICE_DAYS = 365;
@@ -19,8 +19,6 @@ const bind = (deviceId: string, userId: number) =>
 
 type Settings = Pick<Env, "NODE_ENV" | "APP_ORIGIN" | "SESSION_SECRET">;
 
-let cached: { key: string; cookie: Cookie } | undefined;
-
 /**
  * The signed "this browser signed in before" cookie: HttpOnly (no script reads it), SameSite=Lax,
  * and Secure with the `__Host-` prefix wherever the session cookie has them. Its signature, with
@@ -28,21 +26,7 @@ let cached: { key: string; cookie: Cookie } | undefined;
  * owner's own browser past the sign-in limits that a guesser on the same address has used up.
  */
 export function deviceCookie(settings: Settings = env()): Cookie {
-  const key = `${settings.NODE_ENV}|${settings.APP_ORIGIN}|${settings.SESSION_SECRET}`;
-  if (cached?.key === key) return cached.cookie;
-  const secure = cookieIsSecure(settings);
-  const cookie = createCookie(cookieName("tl_device", secure), {
-    httpOnly: true,
-    sameSite: "lax",
-    secure,
-    path: "/",
-    maxAge: DEVICE_DAYS * 24 * 60 * 60,
-    secrets: settings.SESSION_SECRET.split(",")
-      .map((s) => s.trim())
-      .filter(Boolean),
-  });
-  cached = { key, cookie };
-  return cookie;
+  return signedCookie("tl_device", DEVICE_DAYS * 24 * 60 * 60, settings);
 }
 
 async function entries(request: Request, settings: Settings): Promise<Entry[]> {
