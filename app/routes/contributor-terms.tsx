@@ -7,6 +7,7 @@ import { requireUser } from "~/services/auth/guards.server";
 import { getUser } from "~/services/auth/session.server";
 import { AppError, invalid } from "~/utils/errors";
 import { failureOf } from "~/utils/forms";
+import { formatDate } from "~/utils/format";
 import { handleForm } from "~/utils/forms.server";
 import type { Route } from "./+types/contributor-terms";
 
@@ -111,10 +112,7 @@ export default function ContributorTerms({ loaderData, actionData }: Route.Compo
           <Notice tone="success">
             {loaderData.welcome ? "Welcome aboard: you are now an author. " : ""}
             You accepted these terms
-            {loaderData.acceptedAt
-              ? ` on ${new Date(loaderData.acceptedAt).toLocaleDateString("en-GB", { dateStyle: "long", timeZone: "UTC" })}`
-              : ""}
-            .
+            {loaderData.acceptedAt ? ` on ${formatDate(loaderData.acceptedAt)}` : ""}.
           </Notice>
         )}
       </div>

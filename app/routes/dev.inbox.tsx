@@ -1,6 +1,7 @@
 import { env, standIns } from "~/utils/env.server";
 import type { Route } from "./+types/dev.inbox";
 import type { CaughtMail } from "~/services/fakes/mail";
+import { formatDateTime, isoDateTime } from "~/utils/format";
 
 /**
  * The local SMTP catcher's messages; exists only while the catcher stands in for mail (LOCAL_FAKES=1
@@ -35,7 +36,7 @@ export default function DevInbox({ loaderData }: Route.ComponentProps) {
           {messages.map((m) => (
             <li key={m.id} className="rounded-lg border border-rule bg-white p-5 shadow-sm">
               <p className="text-sm text-ink-soft">
-                To {m.to.join(", ")} · {new Date(m.receivedAt).toLocaleString("en-GB")}
+                To {m.to.join(", ")} · <time dateTime={isoDateTime(m.receivedAt)}>{formatDateTime(m.receivedAt)}</time>
               </p>
               <h2 className="mt-1 text-lg font-semibold">{m.subject}</h2>
               <pre className="mt-3 whitespace-pre-wrap break-words font-sans text-sm">{m.text}</pre>

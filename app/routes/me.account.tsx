@@ -8,6 +8,7 @@ import { formHeaders } from "~/utils/forms.server";
 import { requireUser } from "~/services/auth/guards.server";
 import { getAuth } from "~/services/auth/session.server";
 import { failureOf } from "~/utils/forms";
+import { formatDateTime } from "~/utils/format";
 import type { Route } from "./+types/me.account";
 import { accountAction } from "./me.account.server";
 
@@ -54,8 +55,7 @@ export const action = (args: Route.ActionArgs) => accountAction(args);
 export const headers = formHeaders;
 
 // A fixed time zone, so the server's page and the browser's render say the same thing.
-const when = (d: Date | string) =>
-  `${new Date(d).toLocaleString("en-GB", { dateStyle: "medium", timeStyle: "short", timeZone: "UTC" })} UTC`;
+const when = (d: Date | string) => formatDateTime(d);
 
 function Section({ title, children }: { title: string; children: React.ReactNode }) {
   return (
