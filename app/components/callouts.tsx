@@ -1,28 +1,45 @@
 import type { CircuitResult } from "~/engine/circuit";
 import type { TorqueEstimate, TorqueValues } from "~/engine/torque";
-import { round } from "~/utils/format";
+import { keepUnitsTogether, round } from "~/utils/format";
 import { CircuitFigure, CircuitResults } from "./circuit-results";
 
 type AnyCallout = { kind: string; [key: string]: unknown };
 type Evaluated = AnyCallout & { result: unknown };
 
-const SIGNAL_STYLE: Record<string, { bar: string; panel: string; icon: string }> = {
-  DANGER: { bar: "bg-z-danger text-white", panel: "border-z-danger", icon: "▲" },
-  WARNING: { bar: "bg-z-warning text-white", panel: "border-z-warning", icon: "▲" },
-  CAUTION: { bar: "bg-z-caution text-ink", panel: "border-z-caution", icon: "▲" },
-  NOTICE: { bar: "bg-z-notice text-white", panel: "border-z-notice", icon: "■" },
+/**
+ * The signal words of ANSI Z535.6 in their Z535 colours: danger red, warning orange, caution yellow,
+ * notice blue. On screen the word sits on its colour with the text colour that reaches WCAG 2.2's
+ * 4.5:1 there (black on orange and yellow, white on red and blue; checked in callouts.test.ts).
+ * Printed, where backgrounds are usually left off, the word is black on the paper, framed by a
+ * rule in its colour, so no label turns white on white.
+ */
+export const SIGNAL_STYLE: Record<string, { bar: string; print: string; panel: string; icon: string }> = {
+  DANGER: { bar: "bg-z-danger text-white", print: "print:border-z-danger", panel: "border-z-danger", icon: "▲" },
+  WARNING: { bar: "bg-z-warning text-black", print: "print:border-z-warning", panel: "border-z-warning", icon: "▲" },
+  CAUTION: { bar: "bg-z-caution text-black", print: "print:border-z-caution", panel: "border-z-caution", icon: "▲" },
+  NOTICE: { bar: "bg-z-notice text-white", print: "print:border-z-notice", panel: "border-z-notice", icon: "■" },
 };
+
+/** What every label becomes on paper: black text on no background, over a rule in the signal colour. */
+export const SIGNAL_PRINT = "print:bg-transparent print:text-black print:border-b-4";
 
 /** A caution panel after ANSI Z535.6: the signal word in its colour band, then the message. */
 export function CautionCallout({ signalWord, text }: { signalWord: string; text: string }) {
   const style = SIGNAL_STYLE[signalWord] ?? SIGNAL_STYLE.NOTICE;
   return (
-    <div role="note" aria-label={signalWord} className={`overflow-hidden rounded-lg border-2 bg-white ${style.panel}`}>
-      <div className={`flex items-center gap-2 px-4 py-1.5 text-sm font-bold tracking-[0.2em] ${style.bar}`}>
+    <div
+      role="note"
+      aria-label={signalWord}
+      className={`tl-caution overflow-hidden rounded-lg border-2 bg-white break-inside-avoid ${style.panel}`}
+    >
+      <div
+        data-signal-word={signalWord}
+        className={`flex items-center gap-2 px-4 py-1.5 text-sm font-bold tracking-[0.2em] ${style.bar} ${SIGNAL_PRINT} ${style.print}`}
+      >
         {signalWord !== "NOTICE" ? <span aria-hidden="true">{style.icon}</span> : null}
         {signalWord}
       </div>
-      <p className="px-4 py-3 text-[0.95rem] leading-relaxed">{text}</p>
+      <p className="px-4 py-3 text-[0.95rem] leading-relaxed">{keepUnitsTogether(text)}</p>
     </div>
   );
 }

@@ -13,11 +13,15 @@ export type FitmentRow = {
   note?: string | null;
 };
 
-// Shape as well as colour tells the statuses apart, so the badges read in greyscale and print.
-const STATUS_STYLE: Record<FitmentStatus, { mark: string; className: string }> = {
+/**
+ * Shape as well as colour tells the statuses apart, so the badges read in greyscale and print. A
+ * variant the part does not fit says so in words beside a cross, never by striking the name
+ * through, which reads as deleted text (and is lost on some screen readers and printers).
+ */
+const STATUS_STYLE: Record<FitmentStatus, { mark: string; className: string; words?: string }> = {
   fits: { mark: "●", className: "border-spruce-200 bg-spruce-50 text-spruce-800" },
   "fits-with-changes": { mark: "◐", className: "border-brass-100 bg-brass-50 text-brass-700" },
-  "does-not-fit": { mark: "○", className: "border-rule bg-paper text-ink-soft line-through decoration-ink-soft/60" },
+  "does-not-fit": { mark: "✕", className: "border-rule border-dashed bg-paper text-ink-soft", words: "does not fit" },
 };
 
 export function FitmentBadge({ row }: { row: FitmentRow }) {
@@ -25,12 +29,18 @@ export function FitmentBadge({ row }: { row: FitmentRow }) {
   const label = `${POWERTRAIN_LABELS[row.powertrain as Powertrain] ?? row.powertrain} ${row.drivetrain}`;
   return (
     <span
-      className={`inline-flex items-center gap-1 rounded-md border px-2 py-0.5 text-xs font-medium ${style.className}`}
+      className={`inline-flex items-center gap-1 whitespace-nowrap rounded-md border px-2 py-0.5 text-xs font-medium ${style.className}`}
       title={`${row.make} ${row.model} ${row.generation}${row.variant ? ` ${row.variant}` : ""}: ${FITMENT_LABELS[row.status as FitmentStatus]}${row.note ? ` (${row.note})` : ""}`}
     >
       <span aria-hidden="true">{style.mark}</span>
       {label}
-      <span className="sr-only">: {FITMENT_LABELS[row.status as FitmentStatus]}</span>
+      {style.words ? (
+        <span className="font-normal">
+          <span className="sr-only">:</span> {style.words}
+        </span>
+      ) : (
+        <span className="sr-only">: {FITMENT_LABELS[row.status as FitmentStatus]}</span>
+      )}
     </span>
   );
 }
