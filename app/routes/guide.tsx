@@ -1,29 +1,70 @@
+import { useRef } from "react";
 import { Link } from "react-router";
 import { CalloutView } from "~/components/callouts";
 import { SafetyNotice } from "~/components/chrome";
-import { FitmentBadge } from "~/components/fitment";
+import { GuideKit } from "~/components/guide-kit";
+import { PrintFooter, PrintMasthead, PrintViewBar, useDetailsOpenForPrint } from "~/components/guide-print";
 import { PRINT_STYLE } from "~/components/print-style";
 import { getDb } from "~/db/client.server";
-import { getPublishedGuide } from "~/models/library.server";
+import { getPublishedGuide, type PublishedGuide } from "~/models/library.server";
 import { getStorage } from "~/services/storage.server";
-import { formatMinutes } from "~/utils/format";
-import { CATEGORY_LABELS, DIFFICULTY_LABELS, FITMENT_LABELS, type Category, type FitmentStatus } from "~/utils/vocab";
+import { env } from "~/utils/env.server";
+import { formatDate, formatMinutes, isoDateTime, keepUnitsTogether, keepUnitsTogetherInHtml } from "~/utils/format";
+import { CATEGORY_LABELS, DIFFICULTY_LABELS, type Category } from "~/utils/vocab";
 import { notFound } from "~/utils/errors";
 import { pageErrorResponse } from "~/utils/http.server";
 import type { Route } from "./+types/guide";
 
+type Photo = PublishedGuide["steps"][number]["photos"][number];
+
+/** The photo a link preview shows: a JPEG about 1200 px wide (the usual size for link cards), as an absolute URL. */
+function shareImage(photo: Photo, origin: string) {
+  const jpegs = photo.variants.filter((v) => v.format === "jpeg").sort((a, b) => a.width - b.width);
+  const chosen = jpegs.find((v) => v.width >= 1200) ?? jpegs.at(-1);
+  if (!chosen) return null;
+  return {
+    url: new URL(chosen.url, origin).href,
+    width: chosen.width,
+    height: Math.round((chosen.width * photo.height) / photo.width),
+    alt: photo.alt,
+  };
+}
+
 export async function loader({ params, request }: Route.LoaderArgs) {
   const guide = await getPublishedGuide(await getDb(), getStorage(), params.slug);
   if (!guide) throw pageErrorResponse(notFound(`A published guide called "${params.slug}"`));
-  return { guide, print: new URL(request.url).searchParams.get("print") === "1" };
+  // Addresses for the canonical link, Open Graph and the printed page come from the configured public
+  // origin, never from the request's Host header.
+  const origin = env().APP_ORIGIN;
+  const url = new URL(`/guides/${encodeURIComponent(guide.slug)}`, origin).href;
+  const photo = guide.steps.flatMap((s) => s.photos)[0];
+  const image = photo ? shareImage(photo, origin) : null;
+  return { guide, url, image, print: new URL(request.url).searchParams.get("print") === "1" };
 }
 
-export const meta: Route.MetaFunction = ({ data }) =>
-  data
-    ? [{ title: `${data.guide.title} · Torqueleaf` }, { name: "description", content: data.guide.summary }]
-    : [{ title: "Guide not found · Torqueleaf" }];
-
-type Photo = Route.ComponentProps["loaderData"]["guide"]["steps"][number]["photos"][number];
+export const meta: Route.MetaFunction = ({ data }) => {
+  if (!data) return [{ title: "Guide not found · Torqueleaf" }];
+  const { guide, url, image } = data;
+  return [
+    { title: `${guide.title} · Torqueleaf` },
+    { name: "description", content: guide.summary },
+    // The print view is the same guide: both name the guide page as the one address to index and share.
+    { tagName: "link", rel: "canonical", href: url },
+    { property: "og:site_name", content: "Torqueleaf" },
+    { property: "og:type", content: "article" },
+    { property: "og:title", content: guide.title },
+    { property: "og:description", content: guide.summary },
+    { property: "og:url", content: url },
+    ...(image
+      ? [
+          { property: "og:image", content: image.url },
+          { property: "og:image:width", content: String(image.width) },
+          { property: "og:image:height", content: String(image.height) },
+          { property: "og:image:alt", content: image.alt },
+        ]
+      : []),
+  ];
+};
 
 function StepPhoto({ photo, eager }: { photo: Photo; eager: boolean }) {
   const webp = photo.variants.filter((v) => v.format === "webp");
@@ -31,7 +72,7 @@ function StepPhoto({ photo, eager }: { photo: Photo; eager: boolean }) {
   const srcset = (list: typeof webp) => list.map((v) => `${v.url} ${v.width}w`).join(", ");
   const fallback = jpeg[Math.min(1, jpeg.length - 1)] ?? jpeg[0];
   return (
-    <figure className="overflow-hidden rounded-lg border border-rule bg-white">
+    <figure className="tl-photo overflow-hidden rounded-lg border border-rule bg-white print:break-inside-avoid">
       <picture>
         <source type="image/webp" srcSet={srcset(webp)} sizes="(min-width: 768px) 640px, 100vw" />
         <img
@@ -45,63 +86,84 @@ function StepPhoto({ photo, eager }: { photo: Photo; eager: boolean }) {
           className="h-auto w-full"
         />
       </picture>
-      {photo.caption ? <figcaption className="px-3 py-2 text-sm text-ink-soft">{photo.caption}</figcaption> : null}
+      {photo.caption ? (
+        <figcaption className="px-3 py-2 text-sm text-ink-soft">{keepUnitsTogether(photo.caption)}</figcaption>
+      ) : null}
     </figure>
   );
 }
 
+const jumpLink =
+  "inline-flex min-h-11 items-center rounded-full border border-rule bg-white px-3 text-sm font-medium text-spruce-800 hover:bg-paper-deep";
+
 export default function GuidePage({ loaderData }: Route.ComponentProps) {
-  const { guide, print } = loaderData;
+  const { guide, url, print } = loaderData;
+  const article = useRef<HTMLElement>(null);
+  useDetailsOpenForPrint(article, print);
   const electrical = guide.steps.some((s) => s.callouts.some((c) => c.kind === "circuit") || s.disconnectsBattery);
   const lifting = guide.steps.some((s) => s.liftsVehicle);
   return (
-    <article className="mx-auto max-w-6xl px-6 py-10">
+    <article ref={article} className="tl-guide mx-auto max-w-6xl px-4 py-8 sm:px-6 sm:py-10">
       {print ? (
         // The print view: no site chrome, one column, every photo loaded.
         <style>{PRINT_STYLE}</style>
       ) : null}
-      <nav aria-label="Breadcrumb" className="no-print text-sm text-ink-soft">
-        <Link to="/" className="hover:underline">
+      {print ? <PrintViewBar slug={guide.slug} /> : null}
+      <PrintMasthead url={url} revision={guide.revision} onScreen={print} />
+      <nav aria-label="Breadcrumb" className="no-print -ml-1 flex flex-wrap items-center text-sm text-ink-soft">
+        <Link to="/" className="inline-flex min-h-11 items-center px-1 hover:underline">
           Library
-        </Link>{" "}
-        /{" "}
-        <Link to={`/?category=${guide.category}`} className="hover:underline">
+        </Link>
+        <span aria-hidden="true">/</span>
+        <Link to={`/?category=${guide.category}`} className="inline-flex min-h-11 items-center px-1 hover:underline">
           {CATEGORY_LABELS[guide.category as Category]}
         </Link>
       </nav>
-      <header className="mt-3 max-w-3xl">
-        <h1 className="font-serif text-4xl font-semibold leading-tight tracking-tight text-spruce-900">{guide.title}</h1>
-        <p className="mt-3 font-serif text-xl text-ink-soft">{guide.summary}</p>
+      <header className="mt-1 max-w-3xl">
+        <h1 className="break-words font-serif text-3xl font-semibold leading-tight tracking-tight text-spruce-900 sm:text-4xl">
+          {guide.title}
+        </h1>
+        <p className="mt-3 font-serif text-lg text-ink-soft sm:text-xl">{keepUnitsTogether(guide.summary)}</p>
         <dl className="mt-4 flex flex-wrap gap-x-6 gap-y-1 text-sm">
           <div>
             <dt className="inline text-ink-soft">Difficulty </dt>
             <dd className="inline font-medium">
-              {DIFFICULTY_LABELS[guide.difficulty]} ({guide.difficulty}/5)
+              {DIFFICULTY_LABELS[guide.difficulty]} <span className="whitespace-nowrap">({guide.difficulty}/5)</span>
             </dd>
           </div>
           <div>
             <dt className="inline text-ink-soft">Time </dt>
-            <dd className="inline font-medium">about {formatMinutes(guide.minutes)}</dd>
+            <dd className="inline whitespace-nowrap font-medium">about {formatMinutes(guide.minutes)}</dd>
           </div>
           <div>
             <dt className="inline text-ink-soft">Written by </dt>
             <dd className="inline font-medium">{guide.author.name}</dd>
           </div>
-          <div>
+          <div className="screen-only">
             <dt className="inline text-ink-soft">Revision </dt>
             <dd className="inline font-medium">
               {guide.revision.number}
-              {guide.revision.reviewedAt
-                ? `, reviewed ${new Date(guide.revision.reviewedAt).toLocaleDateString("en-GB", { day: "numeric", month: "short", year: "numeric" })}`
-                : ""}
+              {guide.revision.reviewedAt ? (
+                <>
+                  , reviewed{" "}
+                  <time dateTime={isoDateTime(guide.revision.reviewedAt)} className="whitespace-nowrap">
+                    {formatDate(guide.revision.reviewedAt)}
+                  </time>
+                </>
+              ) : null}
             </dd>
           </div>
         </dl>
-        <p className="no-print mt-4 flex gap-3 text-sm">
-          <Link to={`/guides/${guide.slug}?print=1`} className="rounded-md border border-rule px-3 py-1.5 hover:bg-paper-deep">
-            Print view
-          </Link>
-        </p>
+        {print ? null : (
+          <p className="no-print mt-4 flex gap-3 text-sm">
+            <Link
+              to={`/guides/${guide.slug}?print=1`}
+              className="inline-flex min-h-11 items-center rounded-md border border-rule bg-white px-4 font-medium hover:bg-paper-deep"
+            >
+              Print view
+            </Link>
+          </p>
+        )}
       </header>
 
       {electrical || lifting ? (
@@ -110,15 +172,32 @@ export default function GuidePage({ loaderData }: Route.ComponentProps) {
         </div>
       ) : null}
 
-      <div className="tl-guide-grid mt-8 grid gap-10 lg:grid-cols-[1fr_20rem]">
-        <div className="min-w-0">
+      {/* On a phone the kit comes before the steps; these links reach each part of the page from the top. */}
+      <nav aria-label="On this page" className="no-print mt-6 flex flex-wrap gap-2 lg:hidden">
+        <a href="#fitment" className={jumpLink}>
+          Fitment
+        </a>
+        <a href="#parts" className={jumpLink}>
+          Parts and tools
+        </a>
+        <a href="#steps" className={jumpLink}>
+          Steps ({guide.steps.length})
+        </a>
+      </nav>
+
+      <div className="tl-guide-grid mt-6 grid gap-10 lg:mt-8 lg:grid-cols-[minmax(0,1fr)_20rem]">
+        <GuideKit guide={guide} />
+        <div className="min-w-0 lg:col-start-1 lg:row-start-1">
+          <h2 id="steps" className="sr-only scroll-mt-4">
+            Steps
+          </h2>
           <ol className="space-y-12">
             {guide.steps.map((step, index) => (
               <li key={step.title + index} id={`step-${index + 1}`} className="scroll-mt-6">
-                <h2 className="flex items-baseline gap-3 font-serif text-2xl font-semibold text-spruce-900">
-                  <span className="font-mono text-base text-brass-700">Step {index + 1}</span>
-                  {step.title}
-                </h2>
+                <h3 className="flex items-baseline gap-3 font-serif text-2xl font-semibold text-spruce-900 print:break-after-avoid">
+                  <span className="shrink-0 whitespace-nowrap font-mono text-base text-brass-700">Step {index + 1}</span>
+                  <span className="min-w-0">{keepUnitsTogether(step.title)}</span>
+                </h3>
                 {step.liftsVehicle || step.disconnectsBattery ? (
                   <p className="mt-2 flex flex-wrap gap-2 text-xs font-semibold uppercase tracking-wider">
                     {step.liftsVehicle ? <span className="rounded bg-paper-deep px-2 py-1">Vehicle raised</span> : null}
@@ -130,7 +209,7 @@ export default function GuidePage({ loaderData }: Route.ComponentProps) {
                 <div
                   className="prose prose-lg mt-3 max-w-none font-serif prose-headings:font-serif prose-strong:text-ink"
                   // biome-ignore lint/security/noDangerouslySetInnerHtml: rendered from validated rich-text JSON when the revision was saved
-                  dangerouslySetInnerHTML={{ __html: step.html }}
+                  dangerouslySetInnerHTML={{ __html: keepUnitsTogetherInHtml(step.html) }}
                 />
                 {step.photos.length ? (
                   <div className={`mt-4 grid gap-4 ${step.photos.length > 1 ? "sm:grid-cols-2" : ""}`}>
@@ -142,7 +221,9 @@ export default function GuidePage({ loaderData }: Route.ComponentProps) {
                 {step.callouts.length ? (
                   <div className="mt-4 space-y-3">
                     {step.callouts.map((callout, i) => (
-                      <CalloutView key={`${callout.kind}-${i}`} callout={callout} id={`s${index}c${i}`} />
+                      <div key={`${callout.kind}-${i}`} className="tl-callout print:break-inside-avoid">
+                        <CalloutView callout={callout} id={`s${index}c${i}`} />
+                      </div>
                     ))}
                   </div>
                 ) : null}
@@ -150,59 +231,8 @@ export default function GuidePage({ loaderData }: Route.ComponentProps) {
             ))}
           </ol>
         </div>
-
-        <aside className="space-y-6 lg:sticky lg:top-6 lg:self-start">
-          <section className="rounded-xl border border-rule bg-white p-5 shadow-sm">
-            <h2 className="font-serif text-lg font-semibold text-spruce-900">Fitment</h2>
-            <ul className="mt-3 space-y-2 text-sm">
-              {guide.fitment.map((row) => (
-                <li key={row.variantId}>
-                  <p className="font-medium">
-                    {row.make} {row.model} {row.generation} <span className="font-normal text-ink-soft">({row.years})</span>
-                  </p>
-                  <p className="mt-0.5 flex flex-wrap items-center gap-2">
-                    <span>{row.variant}</span>
-                    <FitmentBadge row={row} />
-                  </p>
-                  {row.note ? (
-                    <p className="mt-0.5 text-ink-soft">
-                      {FITMENT_LABELS[row.status as FitmentStatus]}: {row.note}
-                    </p>
-                  ) : null}
-                </li>
-              ))}
-            </ul>
-          </section>
-          <section className="rounded-xl border border-rule bg-white p-5 shadow-sm">
-            <h2 className="font-serif text-lg font-semibold text-spruce-900">Parts</h2>
-            <ul className="mt-3 space-y-2 text-sm">
-              {guide.parts.map((part) => (
-                <li key={part.name} className="flex gap-3">
-                  <span className="w-8 shrink-0 text-right font-mono tabular-nums text-ink-soft">{part.quantity}×</span>
-                  <span>
-                    {part.name}
-                    {part.partNumber ? <span className="block font-mono text-xs text-ink-soft">{part.partNumber}</span> : null}
-                    {part.notes ? <span className="block text-xs text-ink-soft">{part.notes}</span> : null}
-                    {part.stepIndex !== null ? (
-                      <a href={`#step-${part.stepIndex + 1}`} className="block text-xs text-spruce-700 hover:underline">
-                        used in step {part.stepIndex + 1}
-                      </a>
-                    ) : null}
-                  </span>
-                </li>
-              ))}
-            </ul>
-          </section>
-          <section className="rounded-xl border border-rule bg-white p-5 shadow-sm">
-            <h2 className="font-serif text-lg font-semibold text-spruce-900">Tools</h2>
-            <ul className="mt-3 list-disc space-y-1 pl-5 text-sm">
-              {guide.tools.map((tool) => (
-                <li key={tool.name}>{tool.name}</li>
-              ))}
-            </ul>
-          </section>
-        </aside>
       </div>
+      <PrintFooter title={guide.title} url={url} revision={guide.revision} onScreen={print} />
     </article>
   );
 }
