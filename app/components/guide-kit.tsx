@@ -9,15 +9,16 @@ const heading = "font-serif text-lg font-semibold text-spruce-900";
 /**
  * What the reader needs before the first step: fitment, parts and tools. It comes before the steps
  * in the page, so a phone shows it first and print puts it on the first page; on a desktop it sits
- * beside the steps, sticky, and scrolls within itself when it is taller than the window.
+ * beside the steps, sticky, parts and tools on top (what a reader reaches for mid-article, fitment
+ * having been settled before the first step), and scrolls within itself when taller than the window.
  */
 export function GuideKit({ guide }: { guide: Pick<PublishedGuide, "fitment" | "parts" | "tools"> }) {
   return (
     <aside
       aria-label="Fitment, parts and tools"
-      className="tl-guide-kit space-y-6 lg:sticky lg:top-4 lg:col-start-2 lg:row-start-1 lg:max-h-[calc(100dvh-2rem)] lg:self-start lg:overflow-y-auto lg:overscroll-contain lg:p-1"
+      className="tl-guide-kit flex flex-col gap-6 lg:sticky lg:top-4 lg:col-start-2 lg:row-start-1 lg:max-h-[calc(100dvh-2rem)] lg:self-start lg:overflow-y-auto lg:overscroll-contain lg:p-1"
     >
-      <section id="fitment" className={card} aria-labelledby="fitment-heading">
+      <section id="fitment" className={`${card} lg:order-last`} aria-labelledby="fitment-heading">
         <h2 id="fitment-heading" className={heading}>
           Fitment
         </h2>

@@ -6,4 +6,4 @@
  * text here and the hash follows. The same rules for any printed guide page are in app.css.
  */
 export const PRINT_STYLE =
-  ".no-print{display:none!important}.tl-guide-grid{display:block!important}.tl-guide-kit{position:static;max-height:none;overflow:visible;margin-bottom:2.5rem}.tl-guide figure{max-width:30rem;break-inside:avoid}.tl-guide details::details-content{content-visibility:visible}";
+  ".no-print{display:none!important}.tl-guide-grid{display:block!important}.tl-guide-kit{display:block;position:static;max-height:none;overflow:visible;margin-bottom:2.5rem}.tl-guide-kit>*+*{margin-top:1.5rem}.tl-guide figure{max-width:30rem;break-inside:avoid}.tl-guide details::details-content{content-visibility:visible}";

@@ -139,7 +139,8 @@ export default function GuidePage({ loaderData }: Route.ComponentProps) {
             <dt className="inline text-ink-soft">Written by </dt>
             <dd className="inline font-medium">{guide.author.name}</dd>
           </div>
-          <div className="screen-only">
+          {/* On paper, and in the print view, the masthead above the title gives the revision. */}
+          <div className={print ? "hidden" : "screen-only"}>
             <dt className="inline text-ink-soft">Revision </dt>
             <dd className="inline font-medium">
               {guide.revision.number}
