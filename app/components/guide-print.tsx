@@ -121,3 +121,33 @@ export function PrintViewBar({ slug }: { slug: string }) {
     </div>
   );
 }
+
+/**
+ * A wiring diagram that is wider than a phone scrolls sideways inside its frame (app.css), and a
+ * keyboard must be able to scroll it too (WCAG 2.2 §2.1.1): such a frame becomes a focusable,
+ * named group while it scrolls, and an ordinary block again when the window is wide enough.
+ */
+export function useScrollableFiguresFocusable(root: RefObject<HTMLElement | null>) {
+  useEffect(() => {
+    const element = root.current;
+    if (!element) return;
+    const update = () => {
+      for (const frame of element.querySelectorAll<HTMLElement>("figure.tl-figure > .tl-figure")) {
+        if (frame.scrollWidth > frame.clientWidth + 1) {
+          const title = frame.querySelector("svg title")?.textContent?.trim() || "Wiring diagram";
+          frame.tabIndex = 0;
+          frame.setAttribute("role", "group");
+          frame.setAttribute("aria-label", `${title}, scrolls sideways`);
+        } else {
+          frame.removeAttribute("tabindex");
+          frame.removeAttribute("role");
+          frame.removeAttribute("aria-label");
+        }
+      }
+    };
+    update();
+    const observer = new ResizeObserver(update);
+    observer.observe(element);
+    return () => observer.disconnect();
+  }, [root]);
+}

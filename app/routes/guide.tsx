@@ -3,7 +3,13 @@ import { Link } from "react-router";
 import { CalloutView } from "~/components/callouts";
 import { SafetyNotice } from "~/components/chrome";
 import { GuideKit } from "~/components/guide-kit";
-import { PrintFooter, PrintMasthead, PrintViewBar, useDetailsOpenForPrint } from "~/components/guide-print";
+import {
+  PrintFooter,
+  PrintMasthead,
+  PrintViewBar,
+  useDetailsOpenForPrint,
+  useScrollableFiguresFocusable,
+} from "~/components/guide-print";
 import { PRINT_STYLE } from "~/components/print-style";
 import { getDb } from "~/db/client.server";
 import { getPublishedGuide, type PublishedGuide } from "~/models/library.server";
@@ -100,6 +106,7 @@ export default function GuidePage({ loaderData }: Route.ComponentProps) {
   const { guide, url, print } = loaderData;
   const article = useRef<HTMLElement>(null);
   useDetailsOpenForPrint(article, print);
+  useScrollableFiguresFocusable(article);
   const electrical = guide.steps.some((s) => s.callouts.some((c) => c.kind === "circuit") || s.disconnectsBattery);
   const lifting = guide.steps.some((s) => s.liftsVehicle);
   return (

@@ -131,6 +131,21 @@ it("at 360 px: no sideways scroll, parts and tools reachable from the top, Step 
     expect(label.height).toBeLessThanOrEqual(label.lineHeight + 1);
   }
   expect(layout?.broken).toEqual([]);
+  // A wiring diagram (640 units wide, app/engine/diagram.ts) keeps a readable size, its 11-unit labels
+  // at 85 % or more (about 9 px and up), and scrolls inside its frame, which a keyboard can focus.
+  const frames = await page.locator("figure.tl-figure > .tl-figure").evaluateAll((all) =>
+    all.map((frame) => ({
+      scale: (frame.querySelector("svg")?.getBoundingClientRect().width ?? 0) / 640,
+      scrolls: frame.scrollWidth > frame.clientWidth,
+      tabIndex: (frame as HTMLElement).tabIndex,
+    })),
+  );
+  expect(frames.length).toBeGreaterThan(0);
+  for (const frame of frames) {
+    expect(frame.scale).toBeGreaterThanOrEqual(0.85);
+    expect(frame.scrolls).toBe(true);
+    expect(frame.tabIndex).toBe(0);
+  }
   await screenshot(page, "guide-phone");
   expect(errors).toEqual([]);
 });
