@@ -89,7 +89,11 @@ export default function Login({ loaderData, actionData }: Route.ComponentProps) 
       }
     >
       {loaderData.notice ? <Notice tone={loaderData.notice.tone}>{loaderData.notice.text}</Notice> : null}
-      {failure && values.intent !== "resend" ? <Notice tone="error">{failure.message}</Notice> : null}
+      {failure && values.intent !== "resend" ? (
+        <Notice tone="error" focusOn={actionData}>
+          {failure.message}
+        </Notice>
+      ) : null}
       <Form method="post" noValidate>
         <input type="hidden" name="redirectTo" value={loaderData.redirectTo} />
         <Field
@@ -133,7 +137,11 @@ export default function Login({ loaderData, actionData }: Route.ComponentProps) 
             {resent.message}
           </p>
         ) : null}
-        {failure && values.intent === "resend" ? <Notice tone="error">{failure.message}</Notice> : null}
+        {failure && values.intent === "resend" ? (
+          <Notice tone="error" focusOn={actionData}>
+            {failure.message}
+          </Notice>
+        ) : null}
         <Form method="post" className="mt-3" noValidate>
           <input type="hidden" name="intent" value="resend" />
           <Field

@@ -37,7 +37,11 @@ export default function Reset({ loaderData, actionData }: Route.ComponentProps) 
           minutes.
         </Notice>
       ) : null}
-      {failure ? <Notice tone="error">{failure.message}</Notice> : null}
+      {failure ? (
+        <Notice tone="error" focusOn={actionData}>
+          {failure.message}
+        </Notice>
+      ) : null}
       <Form method="post" noValidate>
         <Field
           label="E-mail address"
