@@ -53,7 +53,7 @@ export default function Reset({ loaderData, actionData }: Route.ComponentProps) 
         />
         <div className="mt-6 flex items-center justify-between">
           <SubmitButton>Send the link</SubmitButton>
-          <Link to="/login" className="text-sm text-spruce-700 underline">
+          <Link to="/login" className="inline-flex min-h-11 items-center text-sm text-spruce-700 underline">
             Back to sign-in
           </Link>
         </div>
