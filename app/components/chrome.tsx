@@ -57,7 +57,8 @@ function UserMenu({ user, permissions }: { user: NonNullable<RootData["user"]>; 
         >
           {user.name.trim().charAt(0).toUpperCase() || "?"}
         </span>
-        <span>{user.name}</span>
+        {/* On a phone the initial alone, so the menu keeps to the row of the name. */}
+        <span className="sr-only sm:not-sr-only">{user.name}</span>
         <span className="sr-only">, account menu</span>
       </summary>
       <div className="absolute right-0 z-20 mt-2 w-64 max-w-[calc(100vw-2rem)] rounded-lg border border-rule bg-white p-2 text-ink shadow-lg">

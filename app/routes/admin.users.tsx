@@ -110,14 +110,14 @@ export default function AdminUsers({ loaderData, actionData }: Route.ComponentPr
                             </option>
                           ))}
                         </select>
-                        <div>
+                        <div className="w-full sm:w-auto">
                           <input
                             name="reason"
                             placeholder="Reason (kept in the audit log)"
                             aria-label={`Reason for the change to ${u.name}`}
                             defaultValue={rowFailure?.values?.reason}
                             aria-invalid={rowFailure?.fields?.reason ? true : undefined}
-                            className={`${input} w-56 max-w-full`}
+                            className={`${input} w-full sm:w-56`}
                           />
                           {rowFailure?.fields?.reason ? (
                             <p className="mt-1 text-xs font-medium text-z-danger">{rowFailure.fields.reason}</p>

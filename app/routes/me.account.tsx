@@ -161,7 +161,7 @@ export default function Account({ loaderData, actionData }: Route.ComponentProps
         <ul className="divide-y divide-rule">
           {sessions.map((s) => (
             <li key={s.id} className="flex flex-wrap items-center justify-between gap-3 py-3">
-              <div className="min-w-0 flex-1 text-sm">
+              <div className="min-w-56 flex-1 text-sm">
                 {s.current ? (
                   <p className="text-xs font-semibold uppercase tracking-wider text-spruce-700">This browser</p>
                 ) : null}
