@@ -72,7 +72,7 @@ export default function App({ loaderData }: Route.ComponentProps) {
   return (
     <>
       <SiteHeader />
-      <main className="flex-1">
+      <main id="main" tabIndex={-1} className="flex-1 focus:outline-none">
         {loaderData.flash ? <FlashBanner key={loaderData.flash.text} flash={loaderData.flash} /> : null}
         <Outlet />
       </main>
@@ -86,7 +86,7 @@ export function ErrorBoundary({ error }: Route.ErrorBoundaryProps) {
   return (
     <>
       <SiteHeader />
-      <main className="flex-1">
+      <main id="main" tabIndex={-1} className="flex-1 focus:outline-none">
         <ErrorPage status={status} detail={isRouteErrorResponse(error) ? String(error.data ?? "") : undefined} />
       </main>
       <SiteFooter />

@@ -1,3 +1,4 @@
+import { type KeyboardEvent, useEffect, useRef, useState } from "react";
 import { Form, Link, NavLink, useLocation } from "react-router";
 import { type RootData, useRootData } from "~/utils/root-data";
 import { ROLE_LABELS } from "~/utils/vocab";
@@ -7,7 +8,7 @@ export function LogoMark({ className = "h-9 w-9" }: { className?: string }) {
 }
 
 const navClass = ({ isActive }: { isActive: boolean }) =>
-  `rounded-md px-3 py-2 text-sm font-medium ${isActive ? "bg-spruce-700 text-paper" : "text-spruce-100 hover:bg-spruce-700/60 hover:text-paper"}`;
+  `inline-flex min-h-11 items-center rounded-md px-3 py-2 text-sm font-medium ${isActive ? "bg-spruce-700 text-paper" : "text-spruce-100 hover:bg-spruce-700/60 hover:text-paper"}`;
 
 /**
  * The signed-in member's menu. Entries show only for the permission (or role) that can use them;
@@ -23,19 +24,44 @@ function UserMenu({ user, permissions }: { user: NonNullable<RootData["user"]>; 
   const entries = MENU.filter((e) => (!e.permission || permissions.includes(e.permission)) && (!e.role || e.role === user.role));
   // Keyed by the address, so the menu closes when one of its links is followed.
   const { pathname } = useLocation();
+  const menu = useRef<HTMLDetailsElement>(null);
+  const [open, setOpen] = useState(false);
+  // While it is open, a click or a tap anywhere else closes it.
+  useEffect(() => {
+    if (!open) return;
+    const close = (event: PointerEvent) => {
+      if (menu.current && !menu.current.contains(event.target as Node)) menu.current.open = false;
+    };
+    document.addEventListener("pointerdown", close);
+    return () => document.removeEventListener("pointerdown", close);
+  }, [open]);
+  // Escape closes it and gives the focus back to its button.
+  const onKeyDown = (event: KeyboardEvent<HTMLDetailsElement>) => {
+    if (event.key !== "Escape" || !menu.current?.open) return;
+    event.preventDefault();
+    menu.current.open = false;
+    menu.current.querySelector("summary")?.focus();
+  };
   return (
-    <details key={pathname} className="group relative">
-      <summary className="flex cursor-pointer list-none items-center gap-2 rounded-md px-3 py-2 font-medium text-paper hover:bg-spruce-700/60">
+    <details
+      key={pathname}
+      ref={menu}
+      className="group relative"
+      onToggle={(event) => setOpen(event.currentTarget.open)}
+      onKeyDown={onKeyDown}
+    >
+      <summary className="flex min-h-11 cursor-pointer list-none items-center gap-2 rounded-md px-3 py-2 font-medium text-paper hover:bg-spruce-700/60">
         <span
           aria-hidden="true"
-          className="grid h-7 w-7 place-items-center rounded-full bg-brass-500 font-semibold text-spruce-900"
+          className="grid h-7 w-7 place-items-center rounded-full bg-brass-100 font-semibold text-spruce-900"
         >
           {user.name.trim().charAt(0).toUpperCase() || "?"}
         </span>
-        <span>{user.name}</span>
+        {/* On a phone the initial alone, so the menu keeps to the row of the name. */}
+        <span className="sr-only sm:not-sr-only">{user.name}</span>
         <span className="sr-only">, account menu</span>
       </summary>
-      <div className="absolute right-0 z-20 mt-2 w-64 rounded-lg border border-rule bg-white p-2 text-ink shadow-lg">
+      <div className="absolute right-0 z-20 mt-2 w-64 max-w-[calc(100vw-2rem)] rounded-lg border border-rule bg-white p-2 text-ink shadow-lg">
         <p className="px-3 py-2 text-xs text-ink-soft">
           {user.email}
           <br />
@@ -44,14 +70,14 @@ function UserMenu({ user, permissions }: { user: NonNullable<RootData["user"]>; 
         <ul>
           {entries.map((e) => (
             <li key={e.to}>
-              <Link to={e.to} className="block rounded-md px-3 py-2 hover:bg-paper-deep">
+              <Link to={e.to} className="flex min-h-11 items-center rounded-md px-3 py-2 hover:bg-paper-deep">
                 {e.label}
               </Link>
             </li>
           ))}
         </ul>
         <Form method="post" action="/logout" className="mt-1 border-t border-rule pt-1">
-          <button type="submit" className="w-full rounded-md px-3 py-2 text-left hover:bg-paper-deep">
+          <button type="submit" className="min-h-11 w-full rounded-md px-3 py-2 text-left hover:bg-paper-deep">
             Sign out
           </button>
         </Form>
@@ -64,8 +90,15 @@ export function SiteHeader() {
   const root = useRootData();
   return (
     <header className="no-print bg-spruce-800 text-paper">
-      <div className="mx-auto flex max-w-6xl flex-wrap items-center gap-x-6 gap-y-2 px-6 py-3">
-        <Link to="/" className="flex items-center gap-3">
+      {/* The first stop for the keyboard on every page: straight past the header to the page itself. */}
+      <a
+        href="#main"
+        className="sr-only focus:not-sr-only focus:absolute focus:left-4 focus:top-3 focus:z-50 focus:inline-flex focus:min-h-11 focus:items-center focus:rounded-md focus:bg-paper focus:px-4 focus:py-2 focus:font-semibold focus:text-spruce-900"
+      >
+        Skip to content
+      </a>
+      <div className="mx-auto flex max-w-6xl flex-wrap items-center gap-x-6 gap-y-2 px-4 py-3 sm:px-6">
+        <Link to="/" className="flex min-h-11 items-center gap-3">
           <LogoMark className="h-9 w-9 rounded-lg bg-paper p-0.5" />
           <span className="font-serif text-2xl font-semibold tracking-tight">Torqueleaf</span>
         </Link>
@@ -83,10 +116,16 @@ export function SiteHeader() {
             <UserMenu user={root.user} permissions={root.permissions} />
           ) : (
             <>
-              <Link to="/login" className="rounded-md px-3 py-2 font-medium text-spruce-100 hover:text-paper">
+              <Link
+                to="/login"
+                className="inline-flex min-h-11 items-center rounded-md px-3 py-2 font-medium text-spruce-100 hover:text-paper"
+              >
                 Sign in
               </Link>
-              <Link to="/signup" className="rounded-md bg-brass-500 px-3 py-2 font-semibold text-spruce-900 hover:bg-brass-100">
+              <Link
+                to="/signup"
+                className="inline-flex min-h-11 items-center rounded-md bg-brass-100 px-3 py-2 font-semibold text-spruce-900 hover:bg-paper"
+              >
                 Join
               </Link>
             </>
@@ -117,7 +156,7 @@ export function SiteFooter() {
   const root = useRootData();
   return (
     <footer className="no-print mt-16 border-t border-rule bg-paper-deep">
-      <div className="mx-auto grid max-w-6xl gap-6 px-6 py-8 text-sm text-ink-soft md:grid-cols-[2fr_1fr]">
+      <div className="mx-auto grid max-w-6xl gap-6 px-4 py-8 sm:px-6 text-sm text-ink-soft md:grid-cols-[2fr_1fr]">
         <div>
           <div className="flex items-center gap-2 text-spruce-800">
             <LogoMark className="h-6 w-6" />
@@ -128,20 +167,20 @@ export function SiteFooter() {
             live. Every fuse, wire size and torque value is checked by computation, with its sources shown.
           </p>
         </div>
-        <ul className="space-y-1">
+        <ul>
           <li>
-            <Link className="hover:text-spruce-800 hover:underline" to="/">
+            <Link className="inline-flex min-h-11 items-center hover:text-spruce-800 hover:underline" to="/">
               Library
             </Link>
           </li>
           <li>
-            <Link className="hover:text-spruce-800 hover:underline" to="/tools/circuit">
+            <Link className="inline-flex min-h-11 items-center hover:text-spruce-800 hover:underline" to="/tools/circuit">
               Circuit planner
             </Link>
           </li>
           {root?.devInbox ? (
             <li>
-              <a className="hover:text-spruce-800 hover:underline" href="/dev/inbox">
+              <a className="inline-flex min-h-11 items-center hover:text-spruce-800 hover:underline" href="/dev/inbox">
                 Development inbox
               </a>
             </li>

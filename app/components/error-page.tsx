@@ -13,22 +13,39 @@ const COPY: Record<number, { title: string; body: string }> = {
   500: { title: "Something went wrong on our side", body: "The error has been logged. Try again in a moment." },
 };
 
+/** The letters of a sentence, lower-case, so two wordings of one sentence compare alike. */
+const letters = (text: string) => text.toLowerCase().replace(/[^a-z]/g, "");
+
+/**
+ * Whether a route's own message says what the page's sentence already says ("… access to this."
+ * beside "… access to this page."): the page then shows the sentence once.
+ */
+export function repeatsBody(detail: string, body: string) {
+  const a = letters(detail);
+  const b = letters(body);
+  return a.length > 0 && (a.startsWith(b) || b.startsWith(a));
+}
+
 /** The plain-words page every route's ErrorBoundary shows. */
 export function ErrorPage({ status, detail }: { status: number; detail?: string }) {
   const copy = COPY[status] ?? COPY[500];
+  const extra = detail && status < 500 && !repeatsBody(detail, copy.body) ? detail : null;
   return (
     <section className="mx-auto max-w-2xl px-6 py-20 text-center">
       <p className="font-mono text-sm tracking-widest text-brass-700">ERROR {status}</p>
       <h1 className="mt-3 font-serif text-4xl font-semibold text-spruce-900">{copy.title}</h1>
       <p className="mt-4 text-lg text-ink-soft">{copy.body}</p>
-      {detail && status < 500 ? <p className="mt-2 text-ink-soft">{detail}</p> : null}
-      <div className="mt-8 flex justify-center gap-3">
-        <Link to="/" className="rounded-md bg-spruce-800 px-4 py-2 font-medium text-paper hover:bg-spruce-700">
+      {extra ? <p className="mt-2 text-ink-soft">{extra}</p> : null}
+      <div className="mt-8 flex flex-wrap justify-center gap-3">
+        <Link
+          to="/"
+          className="inline-flex min-h-11 items-center rounded-md bg-spruce-800 px-4 py-2 font-medium text-paper hover:bg-spruce-700"
+        >
           Browse the library
         </Link>
         <Link
           to="/tools/circuit"
-          className="rounded-md border border-rule px-4 py-2 font-medium text-spruce-800 hover:bg-paper-deep"
+          className="inline-flex min-h-11 items-center rounded-md border border-rule px-4 py-2 font-medium text-spruce-800 hover:bg-paper-deep"
         >
           Open the circuit planner
         </Link>

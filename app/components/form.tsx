@@ -50,7 +50,7 @@ export function Field({
         required={required}
         aria-invalid={error ? true : undefined}
         aria-describedby={described}
-        className={`mt-1.5 w-full rounded-md border bg-paper px-3 py-2 ${error ? "border-z-danger" : "border-rule"}`}
+        className={`mt-1.5 min-h-11 w-full rounded-md border bg-paper px-3 py-2 ${error ? "border-z-danger" : "border-rule"}`}
       />
       {hint ? (
         <p id={`${id}-hint`} className="mt-1 text-xs text-ink-soft">
@@ -66,14 +66,36 @@ export function Field({
   );
 }
 
-export function Notice({ tone, children }: { tone: "error" | "success" | "info"; children: ReactNode }) {
+/**
+ * A message above a form. Given `focusOn` (the action's latest answer), an error summary takes the
+ * focus each time that answer changes, so a keyboard or screen-reader user lands on what went wrong
+ * instead of on the page body.
+ */
+export function Notice({
+  tone,
+  children,
+  focusOn,
+}: {
+  tone: "error" | "success" | "info";
+  children: ReactNode;
+  focusOn?: unknown;
+}) {
+  const box = useRef<HTMLDivElement>(null);
+  useEffect(() => {
+    if (focusOn && box.current) box.current.focus();
+  }, [focusOn]);
   const styles = {
     error: "border-z-danger bg-white text-ink",
     success: "border-spruce-500 bg-spruce-50 text-ink",
     info: "border-brass-500 bg-brass-50 text-ink",
   }[tone];
   return (
-    <div role={tone === "error" ? "alert" : "status"} className={`mb-5 rounded-md border-l-4 px-4 py-3 text-sm ${styles}`}>
+    <div
+      ref={box}
+      role={tone === "error" ? "alert" : "status"}
+      tabIndex={focusOn ? -1 : undefined}
+      className={`mb-5 rounded-md border-l-4 px-4 py-3 text-sm ${styles}`}
+    >
       {children}
     </div>
   );
@@ -102,7 +124,7 @@ export function SubmitButton({
       name={name}
       value={value}
       disabled={busy}
-      className={`rounded-md px-4 py-2 font-semibold disabled:opacity-60 ${styles}`}
+      className={`min-h-11 rounded-md px-4 py-2 font-semibold disabled:opacity-60 ${styles}`}
     >
       {children}
     </button>

@@ -8,6 +8,10 @@ import { CATEGORIES, DRIVETRAINS, POWERTRAINS } from "~/utils/vocab";
 import { type LoadedRevision, loadRevision } from "./guides.server";
 import { publicVariants } from "./media.server";
 
+const SEARCH_MAX = 200;
+/** More words than this add nothing a reader means, only work for the index. */
+const SEARCH_TERMS_MAX = 16;
+
 const slugParam = z
   .string()
   .trim()
@@ -20,26 +24,48 @@ export const libraryQuerySchema = z.object({
   make: slugParam,
   model: slugParam,
   generation: slugParam,
-  year: z.coerce.number().int().min(1950).max(2100).optional().catch(undefined),
+  // Any whole number is read, so a year outside the catalogue can be named back to the reader.
+  year: z.coerce.number().int().min(1).max(9999).optional().catch(undefined),
   powertrain: z.enum(POWERTRAINS).optional().catch(undefined),
   drivetrain: z.enum(DRIVETRAINS).optional().catch(undefined),
   category: z.enum(CATEGORIES).optional().catch(undefined),
   difficulty: z.coerce.number().int().min(1).max(5).optional().catch(undefined),
-  q: z.string().trim().max(200).optional().catch(undefined),
+  q: z.string().trim().max(SEARCH_MAX).optional().catch(undefined),
   page: z.coerce.number().int().min(1).max(1000).default(1).catch(1),
 });
-export type LibraryQuery = z.infer<typeof libraryQuerySchema>;
+export type LibraryQuery = z.infer<typeof libraryQuerySchema> & {
+  /** What was asked for but could not be used, by field, in words for the reader. */
+  problems?: LibraryProblems;
+};
+export type LibraryProblems = Partial<Record<"year" | "q" | "page", string>>;
 
 export function parseLibraryQuery(params: URLSearchParams): LibraryQuery {
-  const raw = Object.fromEntries([...params.entries()].filter(([, v]) => v !== ""));
-  return libraryQuerySchema.parse(raw);
+  const raw = Object.fromEntries([...params.entries()].filter(([, v]) => v.trim() !== ""));
+  const problems: LibraryProblems = {};
+  // A search longer than the limit keeps its start rather than being dropped.
+  if (typeof raw.q === "string" && raw.q.trim().length > SEARCH_MAX) {
+    raw.q = raw.q.trim().slice(0, SEARCH_MAX);
+    problems.q = `Search reads the first ${SEARCH_MAX} characters only.`;
+  }
+  const query: LibraryQuery = libraryQuerySchema.parse(raw);
+  if (raw.year !== undefined && query.year === undefined) {
+    problems.year = `Model year must be a year in digits, such as 2021; "${raw.year.slice(0, 20)}" is not one.`;
+  }
+  if (Object.keys(problems).length) query.problems = problems;
+  return query;
+}
+
+/** The parameters of a Library address without the empty ones a plain form sends. */
+export function withoutEmptyParams(params: URLSearchParams): URLSearchParams | null {
+  const kept = new URLSearchParams([...params.entries()].filter(([, v]) => v.trim() !== ""));
+  return kept.toString() === params.toString() ? null : kept;
 }
 
 export const PAGE_SIZE = 12;
 
 /** Turns free text into an FTS5 query of quoted terms (the last one a prefix), so no input is syntax. */
 export function ftsQuery(text: string) {
-  const terms = text.match(/[\p{L}\p{N}]+/gu) ?? [];
+  const terms = (text.slice(0, 1000).match(/[\p{L}\p{N}]+/gu) ?? []).slice(0, SEARCH_TERMS_MAX);
   if (!terms.length) return null;
   return terms.map((t, i) => `"${t.replace(/"/g, '""')}"${i === terms.length - 1 ? "*" : ""}`).join(" ");
 }
@@ -77,10 +103,17 @@ function conditions(query: LibraryQuery, without?: Dimension, vehicleInline = fa
   return sql.join(parts, sql` AND `);
 }
 
+/**
+ * bm25 weights per guide_search column: revision_id (not searched), title, summary, steps_text,
+ * parts_text, tools_text, callouts_text. A word in the title says most about a guide; a part or a
+ * tool named in its lists says more than a word somewhere in the steps.
+ */
+const SEARCH_WEIGHTS = "0, 10, 4, 1, 3, 2, 1";
+
 function searchJoin(query: LibraryQuery): SQL {
   const match = query.q ? ftsQuery(query.q) : null;
   if (!match) return sql``;
-  return sql`JOIN (SELECT revision_id, bm25(guide_search, 0, 10, 4, 1) AS rank FROM guide_search WHERE guide_search MATCH ${match}) s
+  return sql`JOIN (SELECT revision_id, bm25(guide_search, ${sql.raw(SEARCH_WEIGHTS)}) AS rank FROM guide_search WHERE guide_search MATCH ${match}) s
     ON s.revision_id = g.published_revision_id`;
 }
 
@@ -112,7 +145,26 @@ async function vehicleFacet(db: Db, query: LibraryQuery, dimension: keyof typeof
   return Object.fromEntries(rows.map((r) => [r.value, Number(r.n)]));
 }
 
-export async function listPublishedGuides(db: Db, query: LibraryQuery) {
+/** The model years the catalogue covers; a generation still built counts to next year's models. */
+export async function catalogueYears(db: Db) {
+  const open = new Date().getFullYear() + 1;
+  const [row] = await db.all<{ first: number | null; last: number | null }>(
+    sql`SELECT min(first_year) AS first, max(coalesce(last_year, ${open})) AS last FROM generations`,
+  );
+  return row?.first ? { first: Number(row.first), last: Number(row.last) } : null;
+}
+
+export async function listPublishedGuides(db: Db, asked: LibraryQuery) {
+  const problems: LibraryProblems = { ...asked.problems };
+  let query = asked;
+  if (asked.year !== undefined) {
+    const years = await catalogueYears(db);
+    if (!years || asked.year < years.first || asked.year > years.last) {
+      const range = years ? `it lists vehicles from ${years.first} to ${years.last}` : "it lists no vehicles yet";
+      problems.year = `Model year ${asked.year} is outside the catalogue: ${range}. The list below is not filtered by year.`;
+      query = { ...asked, year: undefined };
+    }
+  }
   const where = conditions(query);
   const join = searchJoin(query);
   const order = query.q && ftsQuery(query.q) ? sql`s.rank, g.published_at DESC` : sql`g.published_at DESC, g.id DESC`;
@@ -143,15 +195,23 @@ export async function listPublishedGuides(db: Db, query: LibraryQuery) {
     db,
     rows.map((r) => r.revisionId),
   );
+  const total = Number(totalRows[0]?.n ?? 0);
+  const pages = Math.max(1, Math.ceil(total / PAGE_SIZE));
+  if (total > 0 && query.page > pages) {
+    problems.page = `Page ${query.page} is past the end of this list: it has ${pages} ${pages === 1 ? "page" : "pages"}.`;
+  }
   return {
     guides: rows.map(({ id: _id, revisionId, ...g }) => ({
       ...g,
       fitment: fitmentRows.filter((f) => f.revisionId === revisionId).map(({ revisionId: _r, ...f }) => f),
     })),
-    total: Number(totalRows[0]?.n ?? 0),
+    total,
     page: query.page,
     pageSize: PAGE_SIZE,
+    pages,
     facets: { powertrain, drivetrain, category, difficulty, vehicle },
+    /** What in the query could not be used, by field (year, q, page), as a sentence for the reader. */
+    problems,
   };
 }
 

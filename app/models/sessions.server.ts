@@ -2,6 +2,7 @@ import { createHash, randomBytes } from "node:crypto";
 import { and, desc, eq, gt, isNull, ne } from "drizzle-orm";
 import type { Db } from "~/db/client.server";
 import { sessions, users } from "~/db/schema";
+import { summarizeBrowser } from "~/services/auth/browser-summary";
 
 const DAY = 24 * 60 * 60 * 1000;
 /** Last-seen is written at most this often, so reading a page does not always cost a write. */
@@ -82,4 +83,21 @@ export async function listLiveSessions(db: Db, userId: number) {
     .from(sessions)
     .where(and(eq(sessions.userId, userId), isNull(sessions.revokedAt), gt(sessions.expiresAt, new Date())))
     .orderBy(desc(sessions.lastSeenAt));
+}
+
+/**
+ * An address as a person reads it: an IPv4 client reached over an IPv6 socket shows as
+ * "::ffff:192.0.2.7" (an IPv4-mapped address, RFC 4291 §2.5.5.2), which is plain 192.0.2.7.
+ */
+export function plainAddress(address: string | null | undefined): string | null {
+  const ip = address?.trim();
+  if (!ip) return null;
+  const mapped = ip.match(/^::ffff:(\d{1,3}(?:\.\d{1,3}){3})$/i);
+  return mapped ? mapped[1] : ip;
+}
+
+/** A session as the account page lists it: "Firefox on Linux" and a plain address, not the raw headers. */
+export function describeSession<T extends { userAgent: string | null; ipAddress: string | null }>(session: T) {
+  const { userAgent, ipAddress, ...rest } = session;
+  return { ...rest, browser: summarizeBrowser(userAgent), ipAddress: plainAddress(ipAddress) };
 }

@@ -11,7 +11,10 @@ export const meta: Route.MetaFunction = () => [{ title: "Users · Admin · Torqu
 export const loader = (args: Route.LoaderArgs) => usersLoader(args);
 export const action = (args: Route.ActionArgs) => usersAction(args);
 
-const input = "rounded-md border border-rule bg-paper px-3 py-2 text-sm";
+const input = "min-h-11 rounded-md border border-rule bg-paper px-3 py-2 text-sm";
+/** Below the small breakpoint each row is a card: its cells stack, each with its own heading. */
+const cell = "block px-4 py-2 sm:table-cell sm:py-3";
+const cellLabel = "block text-xs font-semibold uppercase tracking-wider text-ink-soft sm:hidden";
 
 export default function AdminUsers({ loaderData, actionData }: Route.ComponentProps) {
   const { users, total, page, pageSize, query, adminId } = loaderData;
@@ -26,17 +29,17 @@ export default function AdminUsers({ loaderData, actionData }: Route.ComponentPr
   };
 
   return (
-    <div className="mx-auto max-w-6xl px-6 py-10">
-      <h1 className="font-serif text-4xl font-semibold tracking-tight text-spruce-900">Users and roles</h1>
+    <div className="mx-auto max-w-6xl px-4 py-10 sm:px-6">
+      <h1 className="font-serif text-3xl font-semibold sm:text-4xl tracking-tight text-spruce-900">Users and roles</h1>
       <p className="mt-2 text-ink-soft">
         New members are readers; readers become authors by accepting the contributor terms. Editors and admins are appointed here.
         Every change is kept in the audit log with your reason.
       </p>
 
       <Form method="get" role="search" aria-label="Find users" className="mt-6 flex flex-wrap items-end gap-3">
-        <label className="text-sm">
+        <label className="min-w-0 text-sm">
           <span className="block font-semibold">Name or e-mail</span>
-          <input name="q" type="search" defaultValue={query.q ?? ""} className={`mt-1 ${input}`} />
+          <input name="q" type="search" defaultValue={query.q ?? ""} className={`mt-1 w-full sm:w-auto ${input}`} />
         </label>
         <label className="text-sm">
           <span className="block font-semibold">Role</span>
@@ -55,8 +58,8 @@ export default function AdminUsers({ loaderData, actionData }: Route.ComponentPr
       <div className="mt-6">{failure ? <Notice tone="error">{failure.message}</Notice> : null}</div>
       <p className="text-sm text-ink-soft">{`${total} ${total === 1 ? "account" : "accounts"}`}</p>
       <div className="mt-3 overflow-x-auto rounded-xl border border-rule bg-white shadow-sm">
-        <table className="w-full text-left text-sm">
-          <thead className="bg-paper-deep text-xs uppercase tracking-wider text-ink-soft">
+        <table className="block w-full text-left text-sm sm:table">
+          <thead className="hidden bg-paper-deep text-xs uppercase tracking-wider text-ink-soft sm:table-header-group">
             <tr>
               <th className="px-4 py-3">Member</th>
               <th className="px-4 py-3">Role</th>
@@ -64,17 +67,21 @@ export default function AdminUsers({ loaderData, actionData }: Route.ComponentPr
               <th className="px-4 py-3">Change</th>
             </tr>
           </thead>
-          <tbody className="divide-y divide-rule">
+          <tbody className="block divide-y divide-rule sm:table-row-group">
             {users.map((u) => {
               const rowFailure = failure?.values?.userId === String(u.id) ? failure : null;
               return (
-                <tr key={u.id} className="align-top">
-                  <td className="px-4 py-3">
+                <tr key={u.id} className="block py-2 align-top sm:table-row sm:py-0">
+                  <td className={cell}>
                     <p className="font-medium">{u.name}</p>
-                    <p className="text-ink-soft">{u.email}</p>
+                    <p className="break-words text-ink-soft">{u.email}</p>
                   </td>
-                  <td className="px-4 py-3">{ROLE_LABELS[u.role]}</td>
-                  <td className="px-4 py-3">
+                  <td className={cell}>
+                    <span className={cellLabel}>Role</span>
+                    {ROLE_LABELS[u.role]}
+                  </td>
+                  <td className={cell}>
+                    <span className={cellLabel}>Status</span>
                     {u.disabledAt ? (
                       <span className="font-semibold text-z-danger">Disabled</span>
                     ) : u.emailVerifiedAt ? (
@@ -83,7 +90,8 @@ export default function AdminUsers({ loaderData, actionData }: Route.ComponentPr
                       <span className="text-ink-soft">Address not confirmed</span>
                     )}
                   </td>
-                  <td className="px-4 py-3">
+                  <td className={cell}>
+                    <span className={cellLabel}>Change</span>
                     {u.id === adminId ? (
                       <span className="text-ink-soft">Your own account</span>
                     ) : (
@@ -102,14 +110,14 @@ export default function AdminUsers({ loaderData, actionData }: Route.ComponentPr
                             </option>
                           ))}
                         </select>
-                        <div>
+                        <div className="w-full sm:w-auto">
                           <input
                             name="reason"
                             placeholder="Reason (kept in the audit log)"
                             aria-label={`Reason for the change to ${u.name}`}
                             defaultValue={rowFailure?.values?.reason}
                             aria-invalid={rowFailure?.fields?.reason ? true : undefined}
-                            className={`${input} w-56`}
+                            className={`${input} w-full sm:w-56`}
                           />
                           {rowFailure?.fields?.reason ? (
                             <p className="mt-1 text-xs font-medium text-z-danger">{rowFailure.fields.reason}</p>

@@ -1,10 +1,11 @@
-import { Form, Link, useNavigation, useSubmit } from "react-router";
+import { type FormEvent, useEffect, useRef, useState } from "react";
+import { Form, Link, redirect, useLocation, useNavigate, useNavigation } from "react-router";
 import { FitmentSummary } from "~/components/fitment";
 import { SafetyNotice } from "~/components/chrome";
 import { formatMinutes } from "~/utils/format";
 import { getDb } from "~/db/client.server";
 import { getCatalogue, yearsLabel } from "~/models/catalogue.server";
-import { listPublishedGuides, parseLibraryQuery } from "~/models/library.server";
+import { type LibraryQuery, listPublishedGuides, parseLibraryQuery, withoutEmptyParams } from "~/models/library.server";
 import { CATEGORIES, CATEGORY_LABELS, DIFFICULTY_LABELS, DRIVETRAINS, POWERTRAIN_LABELS, POWERTRAINS } from "~/utils/vocab";
 import { Pager } from "~/components/pager";
 import type { Route } from "./+types/library";
@@ -19,7 +20,11 @@ export const meta: Route.MetaFunction = () => [
 ];
 
 export async function loader({ request }: Route.LoaderArgs) {
-  const params = new URL(request.url).searchParams;
+  const url = new URL(request.url);
+  // A plain form sends every field, empty or not; the address keeps only the ones that filter.
+  const kept = withoutEmptyParams(url.searchParams);
+  if (kept) throw redirect(kept.size ? `${url.pathname}?${kept}` : url.pathname);
+  const params = url.searchParams;
   // The page's one vehicle menu posts "make.model.generation"; the API takes the three separately.
   const vehicle = params.get("vehicle");
   if (vehicle) {
@@ -37,12 +42,38 @@ export async function loader({ request }: Route.LoaderArgs) {
       ...model.generations.map((g) => {
         const value = `${make.slug}.${model.slug}.${g.slug}`;
         const count = result.facets.vehicle[value] ?? 0;
-        return { value, label: `${make.name} ${model.name} ${g.name} (${yearsLabel(g.firstYear, g.lastYear)}) · ${count}` };
+        return {
+          value,
+          label: `${make.name} ${model.name} ${g.name} (${yearsLabel(g.firstYear, g.lastYear)}) · ${guidesCount(count)}`,
+        };
       }),
     ]),
   );
   const selectedVehicle = [query.make, query.model, query.generation].filter(Boolean).join(".");
-  return { ...result, query, vehicles, selectedVehicle };
+  // The year as typed, so a year the catalogue does not cover stays in the box to be corrected.
+  const yearText = (params.get("year") ?? "").slice(0, 20);
+  const { problems: _asked, ...shown } = query;
+  return { ...result, query: shown, yearText, vehicles, selectedVehicle };
+}
+
+/** "3 guides", "1 guide", "no guides": a count that says what it counts. */
+function guidesCount(n: number) {
+  if (n === 0) return "no guides";
+  return `${n} ${n === 1 ? "guide" : "guides"}`;
+}
+
+/** The Library's address for a query, without empty or default values. */
+function libraryHref(query: Omit<LibraryQuery, "problems">, page: number) {
+  const params = new URLSearchParams();
+  const { make, model, generation, year, powertrain, drivetrain, category, difficulty, q } = query;
+  const vehicle = [make, model, generation].filter(Boolean).join(".");
+  if (q) params.set("q", q);
+  if (vehicle) params.set("vehicle", vehicle);
+  for (const [k, v] of Object.entries({ year, powertrain, drivetrain, category, difficulty })) {
+    if (v !== undefined) params.set(k, String(v));
+  }
+  if (page > 1) params.set("page", String(page));
+  return params.size ? `/?${params}` : "/";
 }
 
 function FacetGroup<T extends string>({
@@ -63,18 +94,22 @@ function FacetGroup<T extends string>({
   return (
     <fieldset className="mt-5">
       <legend className="text-xs font-semibold uppercase tracking-wider text-ink-soft">{legend}</legend>
-      <div className="mt-2 space-y-1">
-        <label className="flex items-center gap-2 text-sm">
-          <input type="radio" name={name} value="" defaultChecked={!selected} className="accent-spruce-700" />
+      <div className="mt-1">
+        <label className="flex min-h-11 items-center gap-2 text-sm">
+          <input type="radio" name={name} value="" defaultChecked={!selected} className="h-4 w-4 accent-spruce-700" />
           Any
         </label>
         {values.map((value) => (
-          <label key={value} className="flex items-center gap-2 text-sm">
-            <input type="radio" name={name} value={value} defaultChecked={selected === value} className="accent-spruce-700" />
+          <label key={value} className="flex min-h-11 items-center gap-2 text-sm">
+            <input
+              type="radio"
+              name={name}
+              value={value}
+              defaultChecked={selected === value}
+              className="h-4 w-4 accent-spruce-700"
+            />
             <span className="flex-1">{labels ? labels[value] : value}</span>
-            <span className="rounded-full bg-paper-deep px-2 text-xs tabular-nums text-ink-soft" title="Matching guides">
-              {counts[value] ?? 0}
-            </span>
+            <span className="text-xs tabular-nums text-ink-soft">{guidesCount(counts[value] ?? 0)}</span>
           </label>
         ))}
       </div>
@@ -82,140 +117,272 @@ function FacetGroup<T extends string>({
   );
 }
 
-export default function Library({ loaderData }: Route.ComponentProps) {
-  const { guides, total, page, pageSize, facets, query, vehicles, selectedVehicle } = loaderData;
-  const submit = useSubmit();
-  const navigation = useNavigation();
-  const busy = navigation.state === "loading" && navigation.location.pathname === "/";
-  const pages = Math.max(1, Math.ceil(total / pageSize));
-  const pageLink = (n: number) => {
+/** Text boxes apply their value this long after the last keystroke. */
+const TYPING_PAUSE_MS = 400;
+
+/**
+ * The filter form's navigation. Every change builds the address from the form without its empty
+ * fields. A click on a radio or a menu is one history entry; a run of typing in a text box is one
+ * entry too: its first pause adds the entry, later pauses replace it, and Enter or leaving the box
+ * ends the run. Any address the form did not make itself (Clear, Back, Forward, a pager link) gives
+ * the form a new key, so every control shows that address again.
+ */
+function useFilterNavigation() {
+  const location = useLocation();
+  const navigate = useNavigate();
+  const own = useRef<string | null>(null);
+  const seen = useRef(location.key);
+  const typing = useRef<{ timer?: ReturnType<typeof setTimeout>; pushed: boolean }>({ pushed: false });
+  const [formKey, setFormKey] = useState(0);
+
+  useEffect(() => {
+    if (location.key === seen.current) return;
+    seen.current = location.key;
+    if (location.search !== own.current) {
+      clearTimeout(typing.current.timer);
+      typing.current = { pushed: false };
+      setFormKey((k) => k + 1);
+    }
+    own.current = null;
+  }, [location.key, location.search]);
+
+  useEffect(() => () => clearTimeout(typing.current.timer), []);
+
+  const go = (form: HTMLFormElement, replace: boolean) => {
     const params = new URLSearchParams();
-    for (const [k, v] of Object.entries(query)) if (v !== undefined && k !== "page") params.set(k, String(v));
-    params.set("page", String(n));
-    return `/?${params}`;
+    for (const [k, v] of new FormData(form)) {
+      if (typeof v === "string" && v.trim() !== "") params.set(k, v.trim());
+    }
+    const search = params.size ? `?${params}` : "";
+    if (search === location.search) return;
+    own.current = search;
+    navigate(`/${search}`, { replace, preventScrollReset: true });
   };
 
+  const isTextBox = (el: EventTarget) => el instanceof HTMLInputElement && (el.type === "search" || el.type === "number");
+
+  const endTyping = (form: HTMLFormElement) => {
+    const run = typing.current;
+    clearTimeout(run.timer);
+    typing.current = { pushed: false };
+    go(form, run.pushed);
+  };
+
+  return {
+    formKey,
+    onChange(event: FormEvent<HTMLFormElement>) {
+      const form = event.currentTarget;
+      const target = event.target;
+      if (!isTextBox(target)) {
+        endTyping(form);
+        return;
+      }
+      const input = target as HTMLInputElement;
+      clearTimeout(typing.current.timer);
+      // A year applies on its own only once it has all four digits; otherwise on Enter or on leaving the box.
+      if (input.name === "year" && input.value !== "" && !/^\d{4}$/.test(input.value)) return;
+      typing.current.timer = setTimeout(() => {
+        go(form, typing.current.pushed);
+        typing.current.pushed = true;
+      }, TYPING_PAUSE_MS);
+    },
+    onBlur(event: FormEvent<HTMLFormElement>) {
+      if (isTextBox(event.target)) endTyping(event.currentTarget);
+    },
+    onSubmit(event: FormEvent<HTMLFormElement>) {
+      event.preventDefault();
+      endTyping(event.currentTarget);
+    },
+  };
+}
+
+/** Opens the filter panel on wide screens once the page runs; on a phone it starts closed, under its summary. */
+function useWideOpen() {
+  const ref = useRef<HTMLDetailsElement>(null);
+  useEffect(() => {
+    if (ref.current && window.matchMedia("(min-width: 64rem)").matches) ref.current.open = true;
+  }, []);
+  return ref;
+}
+
+export default function Library({ loaderData }: Route.ComponentProps) {
+  const { guides, total, page, pages, facets, problems, query, yearText, vehicles, selectedVehicle } = loaderData;
+  const navigation = useNavigation();
+  const busy = navigation.state === "loading" && navigation.location.pathname === "/";
+  const filters = useFilterNavigation();
+  const panel = useWideOpen();
+  const active = [
+    query.q,
+    selectedVehicle,
+    query.year,
+    query.powertrain,
+    query.drivetrain,
+    query.category,
+    query.difficulty,
+  ].filter((v) => v !== undefined && v !== "").length;
+  const notices = Object.entries(problems).filter(([field]) => field !== "page");
+
   return (
-    <div className="mx-auto max-w-6xl px-6 py-10">
+    <div className="mx-auto max-w-6xl px-4 py-6 sm:px-6 lg:py-10">
       <header className="max-w-3xl">
-        <h1 className="font-serif text-4xl font-semibold tracking-tight text-spruce-900 md:text-5xl">
+        <h1 className="font-serif text-3xl font-semibold tracking-tight text-spruce-900 md:text-5xl">
           Install guides you can check before you drill
         </h1>
-        <p className="mt-3 text-lg text-ink-soft">
+        <p className="mt-3 text-ink-soft md:text-lg">
           Written by owners and shop technicians, reviewed by editors. Filter by your vehicle and powertrain: a hybrid with its 12
           V battery in the cargo area needs a different wire run than the same model with a gasoline engine.
         </p>
       </header>
 
-      <div className="mt-8 grid gap-8 lg:grid-cols-[17rem_1fr]">
-        <Form
-          method="get"
-          role="search"
-          aria-label="Filter guides"
-          className="no-print h-fit rounded-xl border border-rule bg-white p-5 shadow-sm"
-          onChange={(e) => submit(e.currentTarget, { preventScrollReset: true })}
-        >
-          <label className="block text-xs font-semibold uppercase tracking-wider text-ink-soft" htmlFor="q">
-            Search
-          </label>
-          <input
-            id="q"
-            name="q"
-            type="search"
-            defaultValue={query.q ?? ""}
-            placeholder="relay, crossbar, outlet…"
-            className="mt-2 w-full rounded-md border border-rule bg-paper px-3 py-2 text-sm"
-          />
-          <label className="mt-5 block text-xs font-semibold uppercase tracking-wider text-ink-soft" htmlFor="vehicle">
-            Vehicle
-          </label>
-          <select
-            id="vehicle"
-            name="vehicle"
-            defaultValue={selectedVehicle}
-            className="mt-2 w-full rounded-md border border-rule bg-paper px-3 py-2 text-sm"
+      <div className="mt-6 grid gap-6 lg:mt-8 lg:grid-cols-[17rem_1fr] lg:gap-8">
+        <details ref={panel} className="library-filters no-print h-fit min-w-0 rounded-xl border border-rule bg-white shadow-sm">
+          <summary className="flex min-h-11 cursor-pointer items-center justify-between gap-3 px-4 py-2 font-semibold text-spruce-900">
+            <span>
+              Filters and search
+              {active ? <span className="font-normal text-ink-soft">{` · ${active} active`}</span> : null}
+            </span>
+            <span aria-hidden="true" className="library-filters-mark text-ink-soft">
+              ▾
+            </span>
+          </summary>
+          <Form
+            key={filters.formKey}
+            method="get"
+            role="search"
+            aria-label="Filter guides"
+            className="border-t border-rule p-4 lg:border-t-0 lg:p-5"
+            onChange={filters.onChange}
+            onBlur={filters.onBlur}
+            onSubmit={filters.onSubmit}
           >
-            <option value="">Any vehicle</option>
-            {vehicles.map((v) => (
-              <option key={v.value} value={v.value}>
-                {v.label}
-              </option>
-            ))}
-          </select>
-          <label className="mt-5 block text-xs font-semibold uppercase tracking-wider text-ink-soft" htmlFor="year">
-            Model year
-          </label>
-          <input
-            id="year"
-            name="year"
-            type="number"
-            inputMode="numeric"
-            min={1950}
-            max={2100}
-            defaultValue={query.year ?? ""}
-            placeholder="e.g. 2021"
-            className="mt-2 w-full rounded-md border border-rule bg-paper px-3 py-2 text-sm"
-          />
-          <FacetGroup
-            legend="Powertrain"
-            name="powertrain"
-            values={POWERTRAINS}
-            labels={POWERTRAIN_LABELS}
-            counts={facets.powertrain}
-            selected={query.powertrain}
-          />
-          <FacetGroup
-            legend="Drivetrain"
-            name="drivetrain"
-            values={DRIVETRAINS}
-            counts={facets.drivetrain}
-            selected={query.drivetrain}
-          />
-          <FacetGroup
-            legend="Category"
-            name="category"
-            values={CATEGORIES}
-            labels={CATEGORY_LABELS}
-            counts={facets.category}
-            selected={query.category}
-          />
-          <label className="mt-5 block text-xs font-semibold uppercase tracking-wider text-ink-soft" htmlFor="difficulty">
-            Difficulty
-          </label>
-          <select
-            id="difficulty"
-            name="difficulty"
-            defaultValue={query.difficulty ?? ""}
-            className="mt-2 w-full rounded-md border border-rule bg-paper px-3 py-2 text-sm"
-          >
-            <option value="">Any difficulty</option>
-            {[1, 2, 3, 4, 5].map((d) => (
-              <option key={d} value={d}>
-                {d} · {DIFFICULTY_LABELS[d]} · {facets.difficulty[d] ?? 0}
-              </option>
-            ))}
-          </select>
-          <div className="mt-6 flex gap-2">
-            <button
-              type="submit"
-              className="flex-1 rounded-md bg-spruce-800 px-3 py-2 text-sm font-semibold text-paper hover:bg-spruce-700"
+            <label className="block text-xs font-semibold uppercase tracking-wider text-ink-soft" htmlFor="q">
+              Search
+            </label>
+            <input
+              id="q"
+              name="q"
+              type="search"
+              maxLength={200}
+              defaultValue={query.q ?? ""}
+              placeholder="relay, crossbar, outlet…"
+              aria-describedby={problems.q ? "problem-q" : undefined}
+              className="mt-2 min-h-11 w-full rounded-md border border-rule bg-paper px-3 py-2 text-sm"
+            />
+            <label className="mt-5 block text-xs font-semibold uppercase tracking-wider text-ink-soft" htmlFor="vehicle">
+              Vehicle
+            </label>
+            <select
+              id="vehicle"
+              name="vehicle"
+              defaultValue={selectedVehicle}
+              className="mt-2 min-h-11 w-full rounded-md border border-rule bg-paper px-3 py-2 text-sm"
             >
-              Apply filters
-            </button>
-            <Link to="/" className="rounded-md border border-rule px-3 py-2 text-sm text-ink-soft hover:bg-paper-deep">
-              Clear
-            </Link>
-          </div>
-        </Form>
+              <option value="">Any vehicle</option>
+              {vehicles.map((v) => (
+                <option key={v.value} value={v.value}>
+                  {v.label}
+                </option>
+              ))}
+            </select>
+            <label className="mt-5 block text-xs font-semibold uppercase tracking-wider text-ink-soft" htmlFor="year">
+              Model year
+            </label>
+            <input
+              id="year"
+              name="year"
+              type="number"
+              inputMode="numeric"
+              min={1}
+              max={9999}
+              defaultValue={yearText}
+              placeholder="e.g. 2021"
+              aria-invalid={problems.year ? true : undefined}
+              aria-describedby={problems.year ? "problem-year" : undefined}
+              className={`mt-2 min-h-11 w-full rounded-md border bg-paper px-3 py-2 text-sm ${problems.year ? "border-z-danger" : "border-rule"}`}
+            />
+            <FacetGroup
+              legend="Powertrain"
+              name="powertrain"
+              values={POWERTRAINS}
+              labels={POWERTRAIN_LABELS}
+              counts={facets.powertrain}
+              selected={query.powertrain}
+            />
+            <FacetGroup
+              legend="Drivetrain"
+              name="drivetrain"
+              values={DRIVETRAINS}
+              counts={facets.drivetrain}
+              selected={query.drivetrain}
+            />
+            <FacetGroup
+              legend="Category"
+              name="category"
+              values={CATEGORIES}
+              labels={CATEGORY_LABELS}
+              counts={facets.category}
+              selected={query.category}
+            />
+            <label className="mt-5 block text-xs font-semibold uppercase tracking-wider text-ink-soft" htmlFor="difficulty">
+              Difficulty
+            </label>
+            <select
+              id="difficulty"
+              name="difficulty"
+              defaultValue={query.difficulty ?? ""}
+              className="mt-2 min-h-11 w-full rounded-md border border-rule bg-paper px-3 py-2 text-sm"
+            >
+              <option value="">Any difficulty</option>
+              {[1, 2, 3, 4, 5].map((d) => (
+                <option key={d} value={d}>
+                  {d} · {DIFFICULTY_LABELS[d]} · {guidesCount(facets.difficulty[d] ?? 0)}
+                </option>
+              ))}
+            </select>
+            <div className="mt-6 flex gap-2">
+              <button
+                type="submit"
+                className="min-h-11 flex-1 rounded-md bg-spruce-800 px-3 py-2 text-sm font-semibold text-paper hover:bg-spruce-700"
+              >
+                Apply filters
+              </button>
+              <Link
+                to="/"
+                preventScrollReset
+                className="inline-flex min-h-11 items-center rounded-md border border-rule px-3 py-2 text-sm text-ink-soft hover:bg-paper-deep"
+              >
+                Clear
+              </Link>
+            </div>
+          </Form>
+        </details>
 
-        <section aria-live="polite" aria-busy={busy} className={busy ? "opacity-60 transition-opacity" : ""}>
+        <section aria-live="polite" aria-busy={busy} className={`min-w-0 ${busy ? "opacity-60 transition-opacity" : ""}`}>
+          {notices.length ? (
+            <div className="mb-4 rounded-md border-l-4 border-brass-500 bg-brass-50 px-4 py-3 text-sm text-ink" role="status">
+              {notices.map(([field, message]) => (
+                <p key={field} id={`problem-${field}`}>
+                  {message}
+                </p>
+              ))}
+            </div>
+          ) : null}
           <p className="text-sm text-ink-soft">
             {total === 0 ? "No published guide matches these filters." : `${total} ${total === 1 ? "guide" : "guides"}`}
           </p>
+          {problems.page ? (
+            <p className="mt-3 rounded-md border-l-4 border-brass-500 bg-brass-50 px-4 py-3 text-sm text-ink" id="problem-page">
+              {problems.page}{" "}
+              <Link to={libraryHref(query, pages)} className="font-semibold text-spruce-800 underline">
+                Go to page {pages}, the last one
+              </Link>
+              .
+            </p>
+          ) : null}
           <ul className="mt-3 space-y-4">
             {guides.map((g) => (
               <li key={g.slug}>
-                <article className="group rounded-xl border border-rule bg-white p-5 shadow-sm transition hover:border-spruce-200 hover:shadow-md">
+                <article className="group rounded-xl border border-rule bg-white p-4 shadow-sm transition hover:border-spruce-200 hover:shadow-md sm:p-5">
                   <div className="flex flex-wrap items-center gap-2 text-xs font-medium">
                     <span className="rounded-full bg-spruce-50 px-2.5 py-1 text-spruce-800">
                       {CATEGORY_LABELS[g.category as keyof typeof CATEGORY_LABELS]}
@@ -225,7 +392,7 @@ export default function Library({ loaderData }: Route.ComponentProps) {
                     </span>
                     <span className="rounded-full bg-paper-deep px-2.5 py-1 text-ink-soft">about {formatMinutes(g.minutes)}</span>
                   </div>
-                  <h2 className="mt-3 font-serif text-2xl font-semibold leading-snug text-spruce-900">
+                  <h2 className="mt-3 font-serif text-xl font-semibold leading-snug text-spruce-900 sm:text-2xl">
                     <Link to={`/guides/${g.slug}`} className="hover:underline" prefetch="intent">
                       {g.title}
                     </Link>
@@ -237,7 +404,7 @@ export default function Library({ loaderData }: Route.ComponentProps) {
               </li>
             ))}
           </ul>
-          <Pager page={page} pages={pages} href={pageLink} className="mt-6" />
+          <Pager page={page} pages={pages} href={(n) => libraryHref(query, n)} className="mt-6" />
           <div className="mt-8">
             <SafetyNotice compact />
           </div>

@@ -89,7 +89,11 @@ export default function Login({ loaderData, actionData }: Route.ComponentProps) 
       }
     >
       {loaderData.notice ? <Notice tone={loaderData.notice.tone}>{loaderData.notice.text}</Notice> : null}
-      {failure && values.intent !== "resend" ? <Notice tone="error">{failure.message}</Notice> : null}
+      {failure && values.intent !== "resend" ? (
+        <Notice tone="error" focusOn={actionData}>
+          {failure.message}
+        </Notice>
+      ) : null}
       <Form method="post" noValidate>
         <input type="hidden" name="redirectTo" value={loaderData.redirectTo} />
         <Field
@@ -110,7 +114,7 @@ export default function Login({ loaderData, actionData }: Route.ComponentProps) 
         />
         <div className="mt-6 flex items-center justify-between gap-3">
           <SubmitButton>Sign in</SubmitButton>
-          <Link to="/reset" className="text-sm text-spruce-700 underline">
+          <Link to="/reset" className="inline-flex min-h-11 items-center text-sm text-spruce-700 underline">
             Forgot your password?
           </Link>
         </div>
@@ -121,19 +125,23 @@ export default function Login({ loaderData, actionData }: Route.ComponentProps) 
       </div>
       <a
         href={github}
-        className="block rounded-md border border-spruce-800 px-4 py-2 text-center font-semibold text-spruce-800 hover:bg-spruce-50"
+        className="flex min-h-11 items-center justify-center rounded-md border border-spruce-800 px-4 py-2 text-center font-semibold text-spruce-800 hover:bg-spruce-50"
       >
         Sign in with GitHub
       </a>
 
       <details id="resend" className="mt-6 text-sm" open={unconfirmed || values.intent === "resend"}>
-        <summary className="cursor-pointer text-ink-soft">Did not get the confirmation mail?</summary>
+        <summary className="flex min-h-11 cursor-pointer items-center text-ink-soft">Did not get the confirmation mail?</summary>
         {resent ? (
           <p className="mt-2 text-spruce-800" role="status">
             {resent.message}
           </p>
         ) : null}
-        {failure && values.intent === "resend" ? <Notice tone="error">{failure.message}</Notice> : null}
+        {failure && values.intent === "resend" ? (
+          <Notice tone="error" focusOn={actionData}>
+            {failure.message}
+          </Notice>
+        ) : null}
         <Form method="post" className="mt-3" noValidate>
           <input type="hidden" name="intent" value="resend" />
           <Field

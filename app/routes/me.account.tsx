@@ -2,7 +2,7 @@ import { Form, Link } from "react-router";
 import { Field, Notice, SubmitButton } from "~/components/form";
 import { getDb } from "~/db/client.server";
 import { recentFailedAttempts } from "~/models/rate-limit.server";
-import { listLiveSessions } from "~/models/sessions.server";
+import { describeSession, listLiveSessions, plainAddress } from "~/models/sessions.server";
 import { listOAuthAccounts } from "~/models/users.server";
 import { formHeaders } from "~/utils/forms.server";
 import { requireUser } from "~/services/auth/guards.server";
@@ -32,9 +32,13 @@ export async function loader(args: Route.LoaderArgs) {
       hasPassword: !!user.passwordHash,
       termsAcceptedAt: user.termsAcceptedAt,
     },
-    sessions: sessions.map((s) => ({ ...s, current: s.id === auth.sessionId })),
+    sessions: sessions.map((s) => ({ ...describeSession(s), current: s.id === auth.sessionId })),
     linked,
-    failed,
+    failed: {
+      ...failed,
+      attempts: failed.attempts.map((a) => ({ ...a, ipAddress: plainAddress(a.ipAddress) ?? "an unknown address" })),
+      addresses: failed.addresses.map((a) => ({ ...a, ipAddress: plainAddress(a.ipAddress) ?? "an unknown address" })),
+    },
     notice,
   };
 }
@@ -77,7 +81,7 @@ export default function Account({ loaderData, actionData }: Route.ComponentProps
     failure && intent === forIntent ? <Notice tone="error">{failure.message}</Notice> : null;
 
   return (
-    <div className="mx-auto max-w-3xl px-6 py-10">
+    <div className="mx-auto max-w-3xl px-4 py-10 sm:px-6">
       <h1 className="font-serif text-4xl font-semibold tracking-tight text-spruce-900">Your account</h1>
       <p className="mt-2 text-ink-soft">
         {account.email} · <span className="capitalize">{account.role}</span>
@@ -157,13 +161,11 @@ export default function Account({ loaderData, actionData }: Route.ComponentProps
         <ul className="divide-y divide-rule">
           {sessions.map((s) => (
             <li key={s.id} className="flex flex-wrap items-center justify-between gap-3 py-3">
-              <div className="min-w-0 flex-1 text-sm">
+              <div className="min-w-56 flex-1 text-sm">
                 {s.current ? (
                   <p className="text-xs font-semibold uppercase tracking-wider text-spruce-700">This browser</p>
                 ) : null}
-                <p className="truncate font-medium" title={s.userAgent ?? undefined}>
-                  {s.userAgent ?? "Unknown browser"}
-                </p>
+                <p className="font-medium">{s.browser}</p>
                 <p className="text-ink-soft">
                   Signed in {when(s.createdAt)} · last seen {when(s.lastSeenAt)}
                   {s.ipAddress ? ` · from ${s.ipAddress}` : ""}

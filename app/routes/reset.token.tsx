@@ -42,7 +42,11 @@ export default function ResetWithToken({ loaderData, actionData }: Route.Compone
   }
   return (
     <AuthCard title="Choose a new password" intro="Setting it signs you out on every device; then sign in with the new one.">
-      {failure ? <Notice tone="error">{failure.message}</Notice> : null}
+      {failure ? (
+        <Notice tone="error" focusOn={actionData}>
+          {failure.message}
+        </Notice>
+      ) : null}
       <Form method="post" noValidate>
         <Field
           label="New password"

@@ -37,7 +37,11 @@ export default function Reset({ loaderData, actionData }: Route.ComponentProps) 
           minutes.
         </Notice>
       ) : null}
-      {failure ? <Notice tone="error">{failure.message}</Notice> : null}
+      {failure ? (
+        <Notice tone="error" focusOn={actionData}>
+          {failure.message}
+        </Notice>
+      ) : null}
       <Form method="post" noValidate>
         <Field
           label="E-mail address"
@@ -49,7 +53,7 @@ export default function Reset({ loaderData, actionData }: Route.ComponentProps) 
         />
         <div className="mt-6 flex items-center justify-between">
           <SubmitButton>Send the link</SubmitButton>
-          <Link to="/login" className="text-sm text-spruce-700 underline">
+          <Link to="/login" className="inline-flex min-h-11 items-center text-sm text-spruce-700 underline">
             Back to sign-in
           </Link>
         </div>

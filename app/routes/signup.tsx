@@ -60,7 +60,11 @@ export default function SignUp({ loaderData, actionData }: Route.ComponentProps)
         </>
       }
     >
-      {failure ? <Notice tone="error">{failure.message}</Notice> : null}
+      {failure ? (
+        <Notice tone="error" focusOn={actionData}>
+          {failure.message}
+        </Notice>
+      ) : null}
       <Form method="post" noValidate>
         <Field
           label="Name"

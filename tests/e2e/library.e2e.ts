@@ -62,3 +62,108 @@ it("answers an unknown guide with a helpful 404 page", async () => {
   // Chromium logs the 404 itself as a failed load; that one was intended, nothing else may fail.
   expect(errors).toEqual([expect.stringMatching(/status of 404/)]);
 });
+
+/** The value of every filter control, by name: text, menu and the checked radio of each group. */
+async function filterValues(page: import("playwright-core").Page) {
+  return page.evaluate(() => {
+    const form = document.querySelector<HTMLFormElement>("form[role=search]");
+    if (!form) throw new Error("no filter form");
+    const values: Record<string, string> = {};
+    for (const el of Array.from(form.elements) as HTMLInputElement[]) {
+      if (!el.name) continue;
+      if (el.type === "radio") {
+        if (el.checked) values[el.name] = el.value;
+      } else values[el.name] = el.value;
+    }
+    return values;
+  });
+}
+
+it("Clear puts every filter back, and the next change applies only itself", async () => {
+  const { page, errors } = await openPage(browser());
+  await page.goto(`${origin}/`);
+  await page.waitForLoadState("networkidle");
+  const blank = await filterValues(page);
+  expect(blank).toEqual({ q: "", vehicle: "", year: "", powertrain: "", drivetrain: "", category: "", difficulty: "" });
+
+  await page.getByRole("radio", { name: /^Gasoline/ }).check();
+  await page.waitForURL(/powertrain=gas/);
+  await page.getByRole("radio", { name: /^4WD/ }).check();
+  await page.waitForURL(/drivetrain=4WD/);
+  await page.getByLabel("Difficulty").selectOption("3");
+  await page.waitForURL(/difficulty=3/);
+  await page.getByLabel("Model year").fill("2020");
+  await page.waitForURL(/year=2020/);
+  await page.getByRole("searchbox", { name: "Search" }).fill("bracket");
+  await page.waitForURL(/q=bracket/);
+  // Only the filters that are set are in the address.
+  expect(new URL(page.url()).search).toBe("?q=bracket&year=2020&powertrain=gas&drivetrain=4WD&difficulty=3");
+
+  await page.getByRole("link", { name: "Clear" }).click();
+  await page.waitForURL(`${origin}/`);
+  await expect.poll(() => filterValues(page)).toEqual(blank);
+
+  await page.getByRole("radio", { name: /^AWD/ }).check();
+  await page.waitForURL(/drivetrain=AWD/);
+  expect(new URL(page.url()).search).toBe("?drivetrain=AWD");
+  expect(errors).toEqual([]);
+});
+
+it("typing a search adds one history entry, and Back and Forward keep the box in step", async () => {
+  const { page, errors } = await openPage(browser());
+  await page.goto(`${origin}/`);
+  await page.waitForLoadState("networkidle");
+  const before = await page.evaluate(() => history.length);
+  const box = page.getByRole("searchbox", { name: "Search" });
+  await box.click();
+  // Slow enough that some keystrokes are a pause apart and the address changes while typing.
+  for (const key of "relay") {
+    await page.keyboard.type(key);
+    await page.waitForTimeout(key === "l" ? 600 : 80);
+  }
+  await page.waitForURL(/q=relay/);
+  await page.waitForLoadState("networkidle");
+  expect(await page.evaluate(() => history.length)).toBe(before + 1);
+  expect(await page.locator("article h2").allTextContents()).toEqual(
+    expect.arrayContaining([expect.stringMatching(/auxiliary lamps/i)]),
+  );
+
+  await page.goBack();
+  await page.waitForURL(`${origin}/`);
+  await expect.poll(() => box.inputValue()).toBe("");
+  await page.goForward();
+  await page.waitForURL(/q=relay/);
+  await expect.poll(() => box.inputValue()).toBe("relay");
+  expect(errors).toEqual([]);
+});
+
+it("on a phone the filters fold away and the first guide is on the first screen", async () => {
+  const { page, errors } = await openPage(browser());
+  await page.setViewportSize({ width: 360, height: 780 });
+  await page.goto(`${origin}/`);
+  await page.waitForLoadState("networkidle");
+  const summary = page.locator("summary", { hasText: "Filters and search" });
+  expect(await summary.isVisible()).toBe(true);
+  expect(await page.getByRole("searchbox", { name: "Search" }).isVisible()).toBe(false);
+  const first = await page.locator("article h2").first().boundingBox();
+  expect(first).not.toBeNull();
+  expect((first?.y ?? 0) + (first?.height ?? 0)).toBeLessThanOrEqual(780);
+  // Nothing scrolls sideways.
+  expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(360);
+
+  await summary.click();
+  expect(await page.getByRole("searchbox", { name: "Search" }).isVisible()).toBe(true);
+  await page.getByRole("radio", { name: /^Hybrid/ }).check();
+  await page.waitForURL(/powertrain=hybrid/);
+  // The count of filters in use shows on the summary, and the panel stays open while in use.
+  await expect.poll(() => summary.textContent()).toMatch(/1 active/);
+  expect(await page.getByRole("searchbox", { name: "Search" }).isVisible()).toBe(true);
+
+  await page.setViewportSize({ width: 1366, height: 900 });
+  await page.goto(`${origin}/`);
+  await page.waitForLoadState("networkidle");
+  // On a wide screen the filters are always there, without a summary to open.
+  expect(await page.getByRole("searchbox", { name: "Search" }).isVisible()).toBe(true);
+  expect(await summary.isVisible()).toBe(false);
+  expect(errors).toEqual([]);
+});

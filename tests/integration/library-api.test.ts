@@ -75,6 +75,109 @@ describe("GET /api/guides", () => {
     expect(odd.status).toBe(200);
   });
 
+  // Words from the demo guides' parts lists, tools and callouts (content-samples/guides) that are in
+  // no guide's title, summary or step text, so only the parts, tools and callout columns find them.
+  it.each([
+    ["a part name", "glovebox", "kestrel-hood-auxiliary-lamps"],
+    ["a part number", "HH02", "kestrel-hood-auxiliary-lamps"],
+    ["a part number as printed", "XB-1200A", "fjell-f3-roof-crossbars"],
+    ["a tool", "wire stripper", "fjell-hybrid-cargo-12v-outlet"],
+    ["a caution callout's text", "penetrating", "kestrel-k2-front-skid-plate"],
+    ["a warning callout's text", "lethal", "kestrel-rear-recovery-points"],
+  ])("search finds %s (%s)", async (_what, q, slug) => {
+    const body = (await (await get(guidesLoader, `/api/guides?q=${encodeURIComponent(q)}`)).json()) as GuideList;
+    expect(body.guides.map((g) => g.slug)).toContain(slug);
+  });
+
+  it("keeps the index in step as a draft's parts, tools and callouts change", async () => {
+    const { getDb } = await import("~/db/client.server");
+    const { sql } = await import("drizzle-orm");
+    const db = await getDb();
+    const hits = async (word: string) =>
+      (await db.all<{ n: number }>(sql`SELECT count(*) AS n FROM guide_search WHERE guide_search MATCH ${`"${word}"`}`))[0].n;
+    const [draft] = await db.all<{ id: number; step: number }>(sql`
+      SELECT r.id, (SELECT min(id) FROM steps WHERE revision_id = r.id) AS step FROM revisions r WHERE r.state = 'draft' LIMIT 1`);
+    await db.run(
+      sql`INSERT INTO parts (revision_id, position, name, part_number) VALUES (${draft.id}, 99, 'Quillbrace', 'QZ-771')`,
+    );
+    await db.run(sql`INSERT INTO tools (revision_id, position, name) VALUES (${draft.id}, 99, 'Zanderwrench')`);
+    await db.run(
+      sql`INSERT INTO callouts (step_id, position, kind, data) VALUES (${draft.step}, 99, 'tip', '{"text":"Murlwick"}')`,
+    );
+    expect([await hits("quillbrace"), await hits("qz"), await hits("zanderwrench"), await hits("murlwick")]).toEqual([
+      1, 1, 1, 1,
+    ]);
+    await db.run(sql`UPDATE parts SET name = 'Fennibolt' WHERE name = 'Quillbrace'`);
+    expect([await hits("quillbrace"), await hits("fennibolt")]).toEqual([0, 1]);
+    await db.run(sql`DELETE FROM tools WHERE name = 'Zanderwrench'`);
+    await db.run(sql`DELETE FROM callouts WHERE step_id = ${draft.step} AND position = 99`);
+    expect([await hits("zanderwrench"), await hits("murlwick")]).toEqual([0, 0]);
+    // A step's callouts leave the index with the step.
+    await db.run(
+      sql`INSERT INTO callouts (step_id, position, kind, data) VALUES (${draft.step}, 99, 'tip', '{"text":"Murlwick"}')`,
+    );
+    await db.run(sql`DELETE FROM steps WHERE id = ${draft.step}`);
+    expect(await hits("murlwick")).toBe(0);
+  });
+
+  it("keeps unpublished guides out of search on their parts and tools", async () => {
+    // DC-F1 is only in the draft dash-camera guide's parts list.
+    const body = (await (await get(guidesLoader, "/api/guides?q=DC-F1")).json()) as GuideList;
+    expect(body.guides.map((g) => g.slug)).not.toContain("fjell-f3-hardwired-dash-camera");
+  });
+
+  it.each([
+    ['"'],
+    ['""""'],
+    ["NEAR(relay fuse, 2)"],
+    ["relay NEAR fuse"],
+    ["*"],
+    ["relay*"],
+    ["(relay OR fuse) AND NOT"],
+    [")))((("],
+    ["title:relay"],
+    ["^relay"],
+    ["relay -fuse +wire"],
+    ["\u0000\u202e"],
+    ["x".repeat(10 * 1024)],
+    ["a ".repeat(5 * 1024)],
+    ['"a" '.repeat(2 * 1024)],
+  ])("a hostile search never fails the request: %#", async (q) => {
+    const res = await get(guidesLoader, `/api/guides?q=${encodeURIComponent(q)}`);
+    expect(res.status).toBe(200);
+    const body = (await res.json()) as GuideList & { problems: Record<string, string> };
+    expect(Array.isArray(body.guides)).toBe(true);
+    if (q.trim().length > 200) expect(body.problems.q).toMatch(/first 200 characters/);
+  });
+
+  it("names a model year outside the catalogue and the years it covers, and does not filter by it", async () => {
+    const all = (await (await get(guidesLoader, "/api/guides")).json()) as GuideList;
+    const body = (await (await get(guidesLoader, "/api/guides?year=1930")).json()) as GuideList & {
+      problems: Record<string, string>;
+    };
+    // The demo catalogue's generations start with the Fjell F2 in 2013 (content-samples/catalogue.ts).
+    expect(body.problems.year).toMatch(/^Model year 1930 is outside the catalogue: it lists vehicles from 2013 to \d{4}\./);
+    expect(body.total).toBe(all.total);
+    const unreadable = (await (await get(guidesLoader, "/api/guides?year=twenty")).json()) as {
+      problems: Record<string, string>;
+    };
+    expect(unreadable.problems.year).toMatch(/Model year must be a year in digits/);
+    const inside = (await (await get(guidesLoader, "/api/guides?year=2021")).json()) as { problems: Record<string, string> };
+    expect(inside.problems.year).toBeUndefined();
+  });
+
+  it("says when a page is past the end of the list", async () => {
+    const body = (await (await get(guidesLoader, "/api/guides?page=2")).json()) as GuideList & {
+      pages: number;
+      problems: Record<string, string>;
+    };
+    expect(body.guides).toEqual([]);
+    expect(body.pages).toBe(1);
+    expect(body.problems.page).toBe("Page 2 is past the end of this list: it has 1 page.");
+    const first = (await (await get(guidesLoader, "/api/guides?page=1")).json()) as { problems: Record<string, string> };
+    expect(first.problems.page).toBeUndefined();
+  });
+
   it("ignores unreadable filter values instead of failing", async () => {
     const res = await get(guidesLoader, "/api/guides?powertrain=steam&page=-3");
     expect(res.status).toBe(200);

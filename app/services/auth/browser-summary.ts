@@ -8,6 +8,7 @@ const BROWSERS: [RegExp, string][] = [
   [/\bOPR\/|\bOpera\b/, "Opera"],
   [/\bSamsungBrowser\//, "Samsung Internet"],
   [/\bFirefox\/|\bFxiOS\//, "Firefox"],
+  [/\bHeadlessChrome\//, "Headless Chrome"],
   [/\bChrome\/|\bCriOS\/|\bChromium\//, "Chrome"],
   [/\bVersion\/[\d.]+.*\bSafari\//, "Safari"],
   [/\bcurl\//i, "curl"],
