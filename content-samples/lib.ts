@@ -58,9 +58,22 @@ export type TorqueCallout = {
   propertyClass?: "8.8" | "10.9";
   threadlocker?: string;
 } & (
-  | { value: number; unit: "N·m" | "lbf·ft" | "lbf·in"; estimate?: never }
+  | {
+      value: number;
+      unit: "N·m" | "lbf·ft" | "lbf·in";
+      estimate?: never;
+      /** Whose value it is: every demo torque records one. */
+      valueSource: "vehicle-maker" | "accessory-maker" | "author-measured";
+    }
   // Only where no maker value exists: the engine estimates from size and class.
-  | { estimate: true; size: "M6" | "M8" | "M10" | "M12"; propertyClass: "8.8" | "10.9"; lubricated?: boolean; value?: never }
+  | {
+      estimate: true;
+      size: "M6" | "M8" | "M10" | "M12";
+      propertyClass: "8.8" | "10.9";
+      lubricated?: boolean;
+      value?: never;
+      valueSource: "estimate";
+    }
 );
 
 type Load = { loadWatts: number; loadAmps?: never } | { loadAmps: number; loadWatts?: never };
@@ -82,6 +95,10 @@ export type CircuitCallout = {
   switchRatingA: number;
   relay: boolean;
   feed: "battery" | "fuse-box";
+  /** Where the switch and relay coil take their feed; absent = the main fused line on the main wire. */
+  switchFeed?:
+    | { from: "main"; wire?: { awg: number } | { mm2: number } }
+    | { from: "tap"; fuseA: number; wire: { awg: number } | { mm2: number } };
 } & Load;
 
 export type CautionCallout = {

@@ -1,7 +1,8 @@
 import type { CircuitResult } from "~/engine/circuit";
 import type { TorqueEstimate, TorqueValues } from "~/engine/torque";
+import { TORQUE_SOURCE_LABELS, type TorqueSource } from "~/engine/torque-sources";
 import { keepUnitsTogether, round } from "~/utils/format";
-import { CircuitFigure, CircuitResults } from "./circuit-results";
+import { CircuitFigure, CircuitResults, quantity } from "./circuit-results";
 
 type AnyCallout = { kind: string; [key: string]: unknown };
 type Evaluated = AnyCallout & { result: unknown };
@@ -44,6 +45,13 @@ export function CautionCallout({ signalWord, text }: { signalWord: string; text:
   );
 }
 
+function torqueSourceWords(callout: AnyCallout, result: { estimate: TorqueEstimate | null }): string {
+  if (result.estimate) return TORQUE_SOURCE_LABELS.estimate;
+  const source = callout.valueSource as TorqueSource | undefined;
+  if (source && source in TORQUE_SOURCE_LABELS) return TORQUE_SOURCE_LABELS[source];
+  return "not recorded by the author; check the vehicle maker's value before you tighten";
+}
+
 export function TorqueCallout({
   callout,
   result,
@@ -69,20 +77,24 @@ export function TorqueCallout({
       </div>
       {values ? (
         <p className="mt-1 font-mono text-lg tabular-nums text-ink" data-testid="torque-values">
-          <strong className="text-2xl">{round(values.nm, 1)} N·m</strong>
+          <strong className="whitespace-nowrap text-2xl">{quantity(round(values.nm, 1), "N·m")}</strong>
           <span className="mx-2 text-ink-soft">=</span>
-          {round(values.lbfFt, 1)} lbf·ft
+          <span className="whitespace-nowrap">{quantity(round(values.lbfFt, 1), "lbf·ft")}</span>
           <span className="mx-2 text-ink-soft">=</span>
-          {round(values.lbfIn, 0)} lbf·in
+          <span className="whitespace-nowrap">{quantity(round(values.lbfIn, 0), "lbf·in")}</span>
         </p>
       ) : null}
+      <p className="mt-1 text-sm" data-testid="torque-source">
+        <span className="font-medium">Value from: </span>
+        {torqueSourceWords(callout, result)}
+      </p>
       {callout.threadlocker ? <p className="mt-1 text-sm">Threadlocker: {String(callout.threadlocker)}</p> : null}
       {result.estimate ? (
         <p className="mt-1 text-sm text-ink-soft">
           {result.estimate.formula}. {result.estimate.caution}
         </p>
       ) : (
-        <p className="mt-1 text-xs text-ink-soft">Conversions: {result.values?.source.title}.</p>
+        <p className="mt-1 text-xs text-ink-soft">Unit conversions: {result.values?.source.title}.</p>
       )}
     </div>
   );

@@ -1,6 +1,8 @@
 import { relations, sql } from "drizzle-orm";
 import { index, integer, real, sqliteTable, text, uniqueIndex } from "drizzle-orm/sqlite-core";
 import type { CalloutData } from "../engine/callouts";
+import type { SwitchFeed } from "../engine/circuit-input";
+import { TORQUE_SOURCES } from "../engine/torque-sources";
 import type { Finding } from "../engine/rules";
 import {
   BATTERY_LOCATIONS,
@@ -262,6 +264,10 @@ export const callouts = sqliteTable(
     kind: text({ enum: CALLOUT_KINDS }).notNull(),
     /** Validated by the engine's callout schema for its kind before it is stored. */
     data: text({ mode: "json" }).notNull().$type<CalloutData>(),
+    /** Torque callouts: where the value comes from; null on other kinds and on torque callouts stored before it was recorded. */
+    torqueSource: text({ enum: TORQUE_SOURCES }),
+    /** Circuit callouts: the switch (relay coil) feed branch, its own fuse and wire or from the main line; null when not given. */
+    switchFeed: text({ mode: "json" }).$type<SwitchFeed>(),
   },
   (t) => [index("callouts_step").on(t.stepId)],
 );

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { calloutSchema, evaluateCallout, parseCallout, type Callout } from "./callouts";
+import { calloutRow, calloutSchema, evaluateCallout, parseCallout, storedCallout, type Callout } from "./callouts";
 import { checkCircuit, circuitInputSchema } from "./circuit";
 
 const parse = (raw: unknown): Callout => calloutSchema.parse(raw);
@@ -44,7 +44,7 @@ describe("torque callouts", () => {
 
   it("limits the fastener text", () => {
     const parsed = parseCallout({ kind: "torque", fastener: "x".repeat(201), value: 1, unit: "N·m" });
-    expect(!parsed.ok && parsed.fields.fastener).toMatch(/fastener must be at most 200/);
+    expect(!parsed.ok && parsed.fields.fastener).toMatch(/^Fastener must be at most 200/);
   });
 });
 
@@ -64,7 +64,7 @@ describe("circuit callouts", () => {
 
   it("applies the load rule inside the union too", () => {
     const parsed = parseCallout({ kind: "circuit", loadWatts: 1, loadAmps: 1, oneWayLengthM: 1 });
-    expect(!parsed.ok && parsed.fields.loadWatts).toBe("Give either loadWatts or loadAmps, not both");
+    expect(!parsed.ok && parsed.fields.loadWatts).toBe("Give the load as power (W) or as current (A), not both");
   });
 });
 
@@ -75,7 +75,7 @@ describe("caution and tip callouts", () => {
       expect(parseCallout({ kind: "caution", signalWord, text: "Support the vehicle on stands." }).ok).toBe(true);
     }
     const parsed = parseCallout({ kind: "caution", signalWord: "ALERT", text: "x" });
-    expect(!parsed.ok && parsed.fields.signalWord).toMatch(/signalWord must be one of/);
+    expect(!parsed.ok && parsed.fields.signalWord).toMatch(/^Signal word must be one of/);
   });
 
   it("bounds the text", () => {
@@ -90,6 +90,50 @@ describe("caution and tip callouts", () => {
 
   it("names the kind when it is unknown", () => {
     const parsed = parseCallout({ kind: "photo" });
-    expect(!parsed.ok && parsed.fields.kind).toMatch(/kind must be/);
+    expect(!parsed.ok && parsed.fields.kind).toMatch(/^Callout type must be/);
+  });
+});
+
+describe("torque sources", () => {
+  it("records whose value it is and keeps it through the stored columns", () => {
+    const callout = parse({ kind: "torque", fastener: "Hinge bolt", value: 24, unit: "N·m", valueSource: "accessory-maker" });
+    const row = calloutRow(callout);
+    expect(row.torqueSource).toBe("accessory-maker");
+    expect(row.data).not.toHaveProperty("valueSource");
+    expect(storedCallout(row)).toEqual(callout);
+  });
+
+  it("refuses an estimate label on a given value and a maker's label on an estimate", () => {
+    const given = parseCallout({ kind: "torque", fastener: "Nut", value: 5, unit: "N·m", valueSource: "estimate" });
+    expect(!given.ok && given.fields.valueSource).toMatch(/not an estimate/);
+    const estimated = parseCallout({
+      kind: "torque",
+      fastener: "Nut",
+      estimate: true,
+      size: "M8",
+      propertyClass: "8.8",
+      valueSource: "vehicle-maker",
+    });
+    expect(!estimated.ok && estimated.fields.valueSource).toMatch(/estimate/);
+    const unknown = parseCallout({ kind: "torque", fastener: "Nut", value: 5, unit: "N·m", valueSource: "forum" });
+    expect(!unknown.ok && unknown.fields.valueSource).toMatch(/^Torque source must be/);
+  });
+});
+
+describe("switch feed column", () => {
+  it("keeps a circuit's switch feed in its own column and joins it back", () => {
+    const callout = parse({
+      kind: "circuit",
+      loadWatts: 170,
+      oneWayLengthM: 2.6,
+      relay: true,
+      switchFeed: { from: "tap", fuseA: 3, wire: { awg: 18 } },
+    });
+    const row = calloutRow(callout);
+    expect(row.switchFeed).toEqual({ from: "tap", fuseA: 3, wire: { awg: 18 } });
+    expect(row.data).not.toHaveProperty("switchFeed");
+    expect(storedCallout(row)).toEqual(callout);
+    // A row stored before the column existed reads back without a feed.
+    expect(storedCallout({ kind: "circuit", data: row.data })).not.toHaveProperty("switchFeed");
   });
 });

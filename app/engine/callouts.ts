@@ -1,7 +1,7 @@
 import { z } from "zod";
 import { checkCircuit, type CircuitResult } from "./circuit";
 import { fieldErrors } from "~/utils/validation";
-import { circuitCalloutExtraShape, circuitInputShape, loadExclusivity, type FieldErrors } from "./circuit-input";
+import { circuitCalloutExtraShape, circuitInputShape, loadExclusivity, type FieldErrors, type SwitchFeed } from "./circuit-input";
 import {
   METRIC_SIZES,
   PROPERTY_CLASSES,
@@ -13,34 +13,43 @@ import {
   type TorqueEstimate,
   type TorqueValues,
 } from "./torque";
+import { TORQUE_SOURCES, type TorqueSource } from "./torque-sources";
 
 export const SIGNAL_WORDS = ["DANGER", "WARNING", "CAUTION", "NOTICE"] as const;
 export type SignalWord = (typeof SIGNAL_WORDS)[number];
 
-function text(field: string, max: number) {
+function text(label: string, max: number) {
   return z
-    .string({ error: `${field} must be text` })
+    .string({ error: `${label} must be text` })
     .trim()
-    .min(1, { error: `${field} must not be empty` })
-    .max(max, { error: `${field} must be at most ${max} characters` });
+    .min(1, { error: `${label} must not be empty` })
+    .max(max, { error: `${label} must be at most ${max} characters` });
 }
+
+export { TORQUE_SOURCE_LABELS, TORQUE_SOURCES, type TorqueSource } from "./torque-sources";
 
 const torqueCalloutObject = z.object({
   kind: z.literal("torque"),
-  fastener: text("fastener", 200),
+  fastener: text("Fastener", 200),
   value: z
-    .number({ error: "value must be a number" })
-    .gt(0, { error: "value must be more than 0" })
-    .max(100_000, { error: "value must be at most 100000" })
+    .number({ error: "Torque value must be a number" })
+    .gt(0, { error: "Torque value must be more than 0" })
+    .max(100_000, { error: "Torque value must be at most 100000" })
     .optional(),
-  unit: z.enum(TORQUE_UNITS, { error: `unit must be one of ${TORQUE_UNITS.join(", ")}` }).optional(),
+  unit: z.enum(TORQUE_UNITS, { error: `Torque unit must be one of ${TORQUE_UNITS.join(", ")}` }).optional(),
   /** Free text ("M8", "5/16-18") for display; only the metric sizes can be estimated. */
-  size: text("size", 40).optional(),
-  propertyClass: text("propertyClass", 20).optional(),
-  threadlocker: text("threadlocker", 200).optional(),
+  size: text("Bolt size", 40).optional(),
+  propertyClass: text("Property class", 20).optional(),
+  threadlocker: text("Threadlocker", 200).optional(),
   /** True only when the maker publishes no value: the engine then estimates one. */
-  estimate: z.boolean({ error: "estimate must be true or false" }).optional(),
-  lubricated: z.boolean({ error: "lubricated must be true or false" }).optional(),
+  estimate: z.boolean({ error: "Estimate must be yes or no" }).optional(),
+  lubricated: z.boolean({ error: "Lubricated must be yes or no" }).optional(),
+  /** Absent only on callouts stored before sources were recorded; the page then says so. */
+  valueSource: z
+    .enum(TORQUE_SOURCES, {
+      error: "Torque source must be the vehicle maker, the accessory maker, measured by the author, or an estimate",
+    })
+    .optional(),
 });
 
 function isMetricSize(size: string | undefined): size is MetricSize {
@@ -58,26 +67,48 @@ export const torqueCalloutSchema = torqueCalloutObject.superRefine((callout, ctx
       ctx.addIssue({
         code: "custom",
         path: ["estimate"],
-        message: "estimate is only for fasteners without a maker's value; remove value or estimate",
+        message: "An estimate is only for fasteners without a maker's value: remove the torque value or the estimate",
+      });
+    }
+    if (callout.valueSource !== undefined && callout.valueSource !== "estimate") {
+      ctx.addIssue({
+        code: "custom",
+        path: ["valueSource"],
+        message: "An estimated torque has no maker's or measured source: leave the torque source as the estimate",
       });
     }
     if (!isMetricSize(callout.size)) {
-      ctx.addIssue({ code: "custom", path: ["size"], message: `size must be one of ${METRIC_SIZES.join(", ")} for an estimate` });
+      ctx.addIssue({
+        code: "custom",
+        path: ["size"],
+        message: `Bolt size must be one of ${METRIC_SIZES.join(", ")} for an estimate`,
+      });
     }
     if (!isPropertyClass(callout.propertyClass)) {
       ctx.addIssue({
         code: "custom",
         path: ["propertyClass"],
-        message: `propertyClass must be ${PROPERTY_CLASSES.join(" or ")} for an estimate`,
+        message: `Property class must be ${PROPERTY_CLASSES.join(" or ")} for an estimate`,
       });
     }
     return;
   }
+  if (callout.valueSource === "estimate") {
+    ctx.addIssue({
+      code: "custom",
+      path: ["valueSource"],
+      message: "A torque value given by hand is not an estimate: say whose value it is, or ask for an estimate instead",
+    });
+  }
   if (callout.value === undefined) {
-    ctx.addIssue({ code: "custom", path: ["value"], message: "value is required (or set estimate with size and propertyClass)" });
+    ctx.addIssue({
+      code: "custom",
+      path: ["value"],
+      message: "Torque value is required (or ask for an estimate with the bolt size and class)",
+    });
   }
   if (callout.unit === undefined) {
-    ctx.addIssue({ code: "custom", path: ["unit"], message: `unit is required: one of ${TORQUE_UNITS.join(", ")}` });
+    ctx.addIssue({ code: "custom", path: ["unit"], message: `Torque unit is required: one of ${TORQUE_UNITS.join(", ")}` });
   }
 });
 
@@ -87,16 +118,16 @@ export const circuitCalloutSchema = loadExclusivity(
 
 export const cautionCalloutSchema = z.object({
   kind: z.literal("caution"),
-  signalWord: z.enum(SIGNAL_WORDS, { error: `signalWord must be one of ${SIGNAL_WORDS.join(", ")}` }),
-  text: text("text", 2000),
+  signalWord: z.enum(SIGNAL_WORDS, { error: `Signal word must be one of ${SIGNAL_WORDS.join(", ")}` }),
+  text: text("Caution text", 2000),
 });
 
-export const tipCalloutSchema = z.object({ kind: z.literal("tip"), text: text("text", 2000) });
+export const tipCalloutSchema = z.object({ kind: z.literal("tip"), text: text("Tip text", 2000) });
 
 export const calloutSchema = z.discriminatedUnion(
   "kind",
   [torqueCalloutSchema, circuitCalloutSchema, cautionCalloutSchema, tipCalloutSchema],
-  { error: 'kind must be "torque", "circuit", "caution" or "tip"' },
+  { error: "Callout type must be torque, circuit, caution or tip" },
 );
 
 export type TorqueCallout = z.output<typeof torqueCalloutSchema>;
@@ -107,12 +138,35 @@ export type Callout = z.output<typeof calloutSchema>;
 export type CalloutInput = z.input<typeof calloutSchema>;
 
 type WithoutKind<T> = T extends unknown ? Omit<T, "kind"> : never;
-/** A callout as stored: its kind in one column, everything else in a JSON column. */
+/** A callout as stored: its kind, a torque value's source and a circuit's switch feed in their own columns, everything else in a JSON column. */
 export type CalloutData = WithoutKind<Callout>;
+export type CalloutRow = {
+  kind: Callout["kind"];
+  data: CalloutData;
+  torqueSource?: TorqueSource | null;
+  switchFeed?: SwitchFeed | null;
+};
 
-/** Joins a stored callout's two columns again (it was checked by `calloutSchema` before it was stored). */
-export function storedCallout(row: { kind: Callout["kind"]; data: CalloutData }): Callout {
-  return { kind: row.kind, ...row.data } as Callout;
+/** Splits a checked callout into its columns. */
+export function calloutRow(callout: Callout): CalloutRow {
+  if (callout.kind === "torque") {
+    const { kind, valueSource, ...data } = callout;
+    return { kind, data, torqueSource: valueSource ?? null, switchFeed: null };
+  }
+  if (callout.kind === "circuit") {
+    const { kind, switchFeed, ...data } = callout;
+    return { kind, data, torqueSource: null, switchFeed: switchFeed ?? null };
+  }
+  const { kind, ...data } = callout;
+  return { kind, data, torqueSource: null, switchFeed: null };
+}
+
+/** Joins a stored callout's columns again (it was checked by `calloutSchema` before it was stored). */
+export function storedCallout(row: CalloutRow): Callout {
+  const extra: Record<string, unknown> = {};
+  if (row.kind === "torque" && row.torqueSource) extra.valueSource = row.torqueSource;
+  if (row.kind === "circuit" && row.switchFeed) extra.switchFeed = row.switchFeed;
+  return { kind: row.kind, ...row.data, ...extra } as Callout;
 }
 
 export type TorqueEvaluation = {

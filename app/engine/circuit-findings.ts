@@ -1,20 +1,74 @@
 import type { CircuitInput } from "./circuit-input";
 import type { CircuitFinding, WireCheck } from "./circuit-types";
 import { num } from "./format";
+import type { AwgSize, Mm2Size, WireSize } from "./wire";
 
 /** 33 CFR 183.455(b): 7 in from the source. */
 export const MAX_FUSE_DISTANCE_MM = 178;
 /** 33 CFR 183.455(c)(1): a fuse may be up to 150 % of the wire's ampacity. */
 export const FUSE_TO_AMPACITY_LIMIT = 1.5;
 
+/** The largest standard rating the engine knows (ISO 8820-3 and cartridge types). */
+export const LARGEST_STANDARD_FUSE_A = 100;
+
+/** The branch that feeds the switch (and the relay coil behind it), checked like the main line. */
+export type SwitchFeedCheck = {
+  from: "main" | "tap";
+  wire: WireSize;
+  label: string;
+  ampacityA: number | null;
+  /** The fuse that protects the branch: the tap's own, else the main fuse (chosen, or recommended when none is chosen). */
+  fuseA: number | null;
+  fuseIs: "tap" | "chosen" | "recommended" | "none";
+};
+
 type Context = {
   input: CircuitInput;
   currentA: number;
+  fuseFactor: number;
   recommendedFuseA: number | null;
+  minWire: { awg: AwgSize | null; mm2: Mm2Size | null };
+  noneFits: { awg: string | null; mm2: string | null };
   chosen: WireCheck | null;
   relayNeeded: boolean;
+  switchFeed: SwitchFeedCheck | null;
   length: number;
 };
+
+/** Always blocking: with nothing that fits there is nothing safe to buy. */
+function noFuseFits({ currentA, fuseFactor, recommendedFuseA, input }: Context): CircuitFinding[] {
+  if (recommendedFuseA !== null) return [];
+  const neededA = fuseFactor * currentA;
+  const why = input.continuous
+    ? `125 % of the ${num(currentA)} A continuous load is ${num(neededA)} A`
+    : `the load draws ${num(currentA)} A`;
+  return [
+    {
+      rule: "no-fuse-fits",
+      severity: "blocking",
+      message: `No standard fuse fits: ${why}, above ${LARGEST_STANDARD_FUSE_A} A, the largest standard rating. Split the load over several circuits, each with its own fuse and wire.`,
+      source: "iso-8820-3",
+      numbers: { currentA, neededA, largestA: LARGEST_STANDARD_FUSE_A },
+    },
+  ];
+}
+
+function noWireFits({ minWire, noneFits, recommendedFuseA }: Context): CircuitFinding[] {
+  if (minWire.awg !== null || minWire.mm2 !== null) return [];
+  const reason =
+    recommendedFuseA === null
+      ? "with no standard fuse to size it against, no wire in the table can be chosen. Split the load over several circuits."
+      : (noneFits.awg ?? noneFits.mm2 ?? "");
+  return [
+    {
+      rule: "no-wire-fits",
+      severity: "blocking",
+      message: `No wire size in the table fits (18 to 4 AWG, 1 to 10 mm²): ${reason.charAt(0).toLowerCase()}${reason.slice(1)}`,
+      source: "cfr-183-425",
+      numbers: recommendedFuseA === null ? {} : { recommendedFuseA },
+    },
+  ];
+}
 
 function noFuse({ input, recommendedFuseA }: Context): CircuitFinding[] {
   if (input.fuseA !== null) return [];
@@ -122,8 +176,68 @@ function fuseFarFromBattery({ input }: Context): CircuitFinding[] {
   ];
 }
 
+/** The author says there is no relay, so the switch carries the whole load (common practice: a switch is used within its rating). */
+function switchOverloaded({ input, currentA }: Context): CircuitFinding[] {
+  if (input.relay !== false || currentA <= input.switchRatingA) return [];
+  return [
+    {
+      rule: "switch-overloaded",
+      severity: "blocking",
+      message: `With no relay the switch carries the whole ${num(currentA)} A load, more than its ${num(input.switchRatingA)} A rating: it will overheat. Fit a relay (the switch drives terminals 85/86, the relay carries the load 30 → 87) or a switch rated for the load.`,
+      source: "common-practice",
+      numbers: { currentA, switchRatingA: input.switchRatingA },
+    },
+  ];
+}
+
+function switchFeedAgainstWire({ switchFeed }: Context): CircuitFinding[] {
+  if (switchFeed === null || switchFeed.fuseA === null) return [];
+  const fuseA = switchFeed.fuseA;
+  const which =
+    switchFeed.fuseIs === "tap" ? `its own ${num(fuseA)} A fuse` : `the ${num(fuseA)} A ${switchFeed.fuseIs} main fuse`;
+  const branch = switchFeed.from === "tap" ? "the separate switch feed" : "the switch feed taken from the main fused line";
+  if (switchFeed.ampacityA === null) {
+    return [
+      {
+        rule: "wire-unrated",
+        severity: "warning",
+        message: `The ${switchFeed.label} wire of ${branch} is thinner than 18 AWG, the smallest size in the ampacity table, so nothing here shows that ${which} protects it. Use 1 mm² or heavier.`,
+        source: "cfr-183-425",
+        numbers: { fuseA },
+      },
+    ];
+  }
+  const ampacity = switchFeed.ampacityA;
+  const limitA = FUSE_TO_AMPACITY_LIMIT * ampacity;
+  const numbers = { fuseA, ampacityA: ampacity, limitA };
+  if (fuseA > limitA) {
+    return [
+      {
+        rule: "switch-feed-exceeds-wire",
+        severity: "blocking",
+        message: `${branch.charAt(0).toUpperCase()}${branch.slice(1)} is ${switchFeed.label}, which may carry ${num(ampacity)} A here (so a fuse of at most ${num(limitA)} A), but it is protected only by ${which}: a short on that wire could burn it before the fuse opens. Give the switch feed its own small fuse or heavier wire.`,
+        source: "cfr-183-455",
+        numbers,
+      },
+    ];
+  }
+  if (fuseA > ampacity) {
+    return [
+      {
+        rule: "fuse-above-ampacity",
+        severity: "warning",
+        message: `${branch.charAt(0).toUpperCase()}${branch.slice(1)} is ${switchFeed.label} (${num(ampacity)} A here), protected by ${which}; the fuse is there to protect the wire, so give the feed a fuse no larger than its wire's ampacity.`,
+        source: "common-practice",
+        numbers,
+      },
+    ];
+  }
+  return [];
+}
+
+/** Only for an undecided relay: a switch feed of its own already implies one. */
 function relayRecommended({ input, currentA, relayNeeded }: Context): CircuitFinding[] {
-  if (!relayNeeded || input.relay !== false) return [];
+  if (!relayNeeded || input.relay !== undefined || input.switchFeed !== undefined) return [];
   return [
     {
       rule: "relay-recommended",
@@ -137,11 +251,15 @@ function relayRecommended({ input, currentA, relayNeeded }: Context): CircuitFin
 
 export function circuitFindings(context: Context): CircuitFinding[] {
   return [
+    ...noFuseFits(context),
+    ...noWireFits(context),
     ...noFuse(context),
     ...fuseAgainstWire(context),
     ...fuseUndersized(context),
     ...dropOverLimit(context),
     ...fuseFarFromBattery(context),
+    ...switchOverloaded(context),
+    ...switchFeedAgainstWire(context),
     ...relayRecommended(context),
   ];
 }

@@ -5,16 +5,26 @@ import type { WireSize, AwgSize } from "./wire";
 /** The same three severities the database stores with a revision's findings. */
 export type Severity = (typeof FINDING_SEVERITIES)[number];
 
-/** Rule ids are part of the API: the review desk and stored findings key on them. */
-export type CircuitRule =
-  | "no-fuse"
-  | "fuse-exceeds-wire"
-  | "fuse-above-ampacity"
-  | "fuse-undersized"
-  | "drop-over-limit"
-  | "fuse-far-from-battery"
-  | "relay-recommended"
-  | "wire-unrated";
+/**
+ * Rule ids are part of the API: the review desk and stored findings key on them. Each with the
+ * severity it is always reported at (api.md lists the same ids).
+ */
+export const CIRCUIT_RULES = {
+  "no-fuse": "blocking",
+  "fuse-exceeds-wire": "blocking",
+  "no-fuse-fits": "blocking",
+  "no-wire-fits": "blocking",
+  "switch-overloaded": "blocking",
+  "switch-feed-exceeds-wire": "blocking",
+  "fuse-above-ampacity": "warning",
+  "fuse-undersized": "warning",
+  "drop-over-limit": "warning",
+  "fuse-far-from-battery": "warning",
+  "wire-unrated": "warning",
+  "relay-recommended": "info",
+} as const satisfies Record<string, Severity>;
+
+export type CircuitRule = keyof typeof CIRCUIT_RULES;
 
 export type CircuitFinding = {
   rule: CircuitRule;

@@ -1,5 +1,5 @@
 import type { CircuitInput } from "./circuit-input";
-import { circuitFindings } from "./circuit-findings";
+import { circuitFindings, type SwitchFeedCheck } from "./circuit-findings";
 import type { CircuitFinding, WireCheck } from "./circuit-types";
 import { sourceRefs, type SourceId, type SourceRef } from "./sources";
 import {
@@ -21,6 +21,8 @@ import { num } from "./format";
 export * from "./circuit-input";
 export * from "./wire";
 export type { CircuitFinding, CircuitRule, Severity, WireCheck } from "./circuit-types";
+export { CIRCUIT_RULES } from "./circuit-types";
+export type { SwitchFeedCheck } from "./circuit-findings";
 
 /** NEC 210.20(A): a continuous load may use only 80 % of the device's rating. */
 export const CONTINUOUS_FUSE_FACTOR = 1.25;
@@ -41,6 +43,10 @@ export type CircuitResult = {
   /** Every size the engine tried, thinnest first, so a page can show the comparison. */
   candidates: WireCheck[];
   relayNeeded: boolean;
+  /** Whether the circuit is drawn and checked with a relay: the author's word, else a switch feed of its own or the need. */
+  relayUsed: boolean;
+  /** The switch (coil) feed branch, when the callout gives one and a relay is used. */
+  switchFeed: SwitchFeedCheck | null;
   findings: CircuitFinding[];
   notes: string[];
   sources: SourceRef[];
@@ -89,6 +95,25 @@ function explainNoneFits(family: WireCheck[], recommendedFuseA: number | null, i
   const fitting = family.filter((c) => c.carriesFuse);
   const best = fitting[fitting.length - 1];
   return `Even ${best.label} drops ${num(best.dropV)} V (${num(best.dropPct)} %) over ${num(circuitLengthM(input))} m of wire, above the ${input.dropLimitPct} % limit: shorten the run, split the load or use heavier cable.`;
+}
+
+/** The switch feed branch: same insulation, place and bundle as the main run (common practice: they share the loom). */
+export function checkSwitchFeed(input: CircuitInput, recommendedFuseA: number | null): SwitchFeedCheck | null {
+  const feed = input.switchFeed;
+  if (feed === undefined) return null;
+  const wire = feed.wire ?? input.wire ?? null;
+  if (wire === null) return null;
+  const ampacity = ampacityA(wire, input.insulationC, input.location, input.bundled);
+  if (feed.from === "tap") {
+    return { from: "tap", wire, label: wireLabel(wire), ampacityA: ampacity, fuseA: feed.fuseA, fuseIs: "tap" };
+  }
+  const main =
+    typeof input.fuseA === "number"
+      ? { fuseA: input.fuseA, fuseIs: "chosen" as const }
+      : input.fuseA === null
+        ? { fuseA: null, fuseIs: "none" as const }
+        : { fuseA: recommendedFuseA, fuseIs: recommendedFuseA === null ? ("none" as const) : ("recommended" as const) };
+  return { from: "main", wire, label: wireLabel(wire), ampacityA: ampacity, ...main };
 }
 
 export function checkCircuit(input: CircuitInput): CircuitResult {
@@ -162,7 +187,28 @@ export function checkCircuit(input: CircuitInput): CircuitResult {
     );
   }
 
-  const findings = circuitFindings({ input, currentA, recommendedFuseA, chosen, relayNeeded, length });
+  const relayUsed = input.relay ?? (relayNeeded || input.switchFeed !== undefined);
+  const switchFeed = relayUsed ? checkSwitchFeed(input, recommendedFuseA) : null;
+  if (switchFeed) {
+    notes.push(
+      switchFeed.from === "tap"
+        ? `The switch and relay coil are fed from a separate tap: ${switchFeed.label} wire behind its own ${num(switchFeed.fuseA ?? 0)} A fuse, checked like the main line.`
+        : `The switch and relay coil are fed from the main fused line on ${switchFeed.label} wire, so the main fuse must protect that wire too.`,
+    );
+  }
+
+  const findings = circuitFindings({
+    input,
+    currentA,
+    fuseFactor,
+    recommendedFuseA,
+    minWire,
+    noneFits,
+    chosen,
+    relayNeeded,
+    switchFeed,
+    length,
+  });
   for (const finding of findings) used.push(finding.source);
 
   return {
@@ -178,8 +224,47 @@ export function checkCircuit(input: CircuitInput): CircuitResult {
     chosen,
     candidates: [...awgChecks, ...mm2Checks],
     relayNeeded,
+    relayUsed,
+    switchFeed,
     findings,
     notes,
     sources: sourceRefs(used),
   };
+}
+
+export type SummaryStatus = "blocked" | "check" | "nothing-chosen" | "partly-chosen" | "pass";
+
+/**
+ * One sentence over the whole check that speaks only of what was checked: a pass needs both a fuse
+ * and a wire chosen and no blocking or warning finding (info notes do not stop it).
+ */
+export function circuitSummary(result: Pick<CircuitResult, "inputs" | "findings">): { status: SummaryStatus; text: string } {
+  const blocking = result.findings.filter((f) => f.severity === "blocking").length;
+  const warnings = result.findings.filter((f) => f.severity === "warning").length;
+  if (blocking > 0) {
+    const more = warnings > 0 ? ` and ${warnings} more to check` : "";
+    return {
+      status: "blocked",
+      text: `${blocking === 1 ? "1 problem" : `${blocking} problems`} must be fixed before this circuit is built${more}: see below.`,
+    };
+  }
+  if (warnings > 0) {
+    return {
+      status: "check",
+      text: `${warnings === 1 ? "1 point" : `${warnings} points`} to check before this circuit is built: see below.`,
+    };
+  }
+  const wireChosen = result.inputs.wire !== undefined;
+  const fuseChosen = typeof result.inputs.fuseA === "number";
+  if (!wireChosen && !fuseChosen) return { status: "nothing-chosen", text: "Nothing chosen yet: these are the sizes to buy." };
+  if (!fuseChosen) {
+    return { status: "partly-chosen", text: "The chosen wire passes its checks; choose a fuse to check it against the wire." };
+  }
+  if (!wireChosen) {
+    return {
+      status: "partly-chosen",
+      text: "The chosen fuse passes its checks; choose a wire size to check the fuse against it.",
+    };
+  }
+  return { status: "pass", text: "The chosen fuse and wire pass every check." };
 }

@@ -5,6 +5,11 @@ import { wireLabel } from "./wire";
 
 export type DiagramInput = CircuitInput & { relay?: boolean; label?: string };
 
+/** A fuse drawn as a box with its strip, centred on (cx, y). */
+function fuseBox(cx: number, y: number): string {
+  return `<rect class="tl-part" x="${cx - 24}" y="${y - 8}" width="48" height="16" rx="3"/>${line(cx - 20, y, cx + 20, y, "tl-part")}`;
+}
+
 const WIDTH = 640;
 const HEIGHT = 280;
 /** The supply rail; everything carrying load current sits on it. */
@@ -92,6 +97,17 @@ function relaySymbol(): string {
   ].join("");
 }
 
+/** The switch feed as the callout gives it: its wire label and, for a tap, its own fuse. */
+export function switchFeedLabel(
+  input: DiagramInput,
+  main: { text: string },
+): { from: "main" | "tap"; wire: string; fuseA: number | null } {
+  const feed = input.switchFeed;
+  if (feed === undefined) return { from: "main", wire: main.text, fuseA: null };
+  const wire = feed.wire ? wireLabel(feed.wire) : main.text;
+  return feed.from === "tap" ? { from: "tap", wire, fuseA: feed.fuseA } : { from: "main", wire, fuseA: null };
+}
+
 /** The size the page should show: what the author chose, else the engine's minimum. */
 export function diagramWireLabel(input: DiagramInput, result: CircuitResult): { text: string; chosen: boolean } {
   if (input.wire) return { text: wireLabel(input.wire), chosen: true };
@@ -101,8 +117,8 @@ export function diagramWireLabel(input: DiagramInput, result: CircuitResult): { 
 }
 
 export function usesRelay(input: DiagramInput, result: CircuitResult): boolean {
-  // The diagram shows what the author does; relay-recommended reports the gap.
-  return input.relay ?? result.relayNeeded;
+  // The diagram shows what the author does; relay-recommended and switch-overloaded report the gap.
+  return input.relay ?? (result.relayNeeded || input.switchFeed !== undefined);
 }
 
 export function wiringDiagramSvg(input: DiagramInput, result: CircuitResult, options: { idPrefix?: string } = {}): string {
@@ -123,13 +139,24 @@ export function wiringDiagramSvg(input: DiagramInput, result: CircuitResult, opt
   parts.push(line(70, RAIL, 150, RAIL), text(110, RAIL - 8, size.text, sizeCls));
   parts.push(fuse.svg);
 
+  const feed = switchFeedLabel(input, size);
   if (relay) {
-    parts.push(line(198, RAIL, 330, RAIL), dot(232, RAIL), text(281, RAIL - 8, size.text, sizeCls));
     parts.push(relaySymbol());
-    // Coil side: switch fed from behind the fuse, so the fuse protects the coil wiring too.
-    parts.push(line(232, RAIL, 232, COIL), line(232, COIL, 252, COIL), inlineSwitch(252, 302, COIL), line(302, COIL, 330, COIL));
-    parts.push(text(226, COIL - 22, size.text, sizeCls, "end"));
+    if (feed.from === "tap") {
+      // A separate low-current tap with its own fuse feeds the switch; the main line goes only to terminal 30.
+      parts.push(line(198, RAIL, 330, RAIL), text(264, RAIL - 8, size.text, sizeCls));
+      parts.push(`<circle class="tl-part" cx="96" cy="${COIL}" r="4"/>`, text(96, COIL + 20, "fused tap", "tl-note"));
+      parts.push(line(100, COIL, 150, COIL), fuseBox(174, COIL), text(174, COIL + 26, `${num(feed.fuseA ?? 0)} A fuse`));
+      parts.push(line(198, COIL, 252, COIL), text(225, COIL - 8, feed.wire, "tl-size"));
+    } else {
+      // Switch fed from behind the main fuse, so that fuse must protect the feed wire too.
+      parts.push(line(198, RAIL, 330, RAIL), dot(232, RAIL), text(281, RAIL - 8, size.text, sizeCls));
+      parts.push(line(232, RAIL, 232, COIL), line(232, COIL, 252, COIL));
+      parts.push(text(226, COIL - 22, feed.wire, feed.wire === size.text ? sizeCls : "tl-size", "end"));
+    }
+    parts.push(inlineSwitch(252, 302, COIL), line(302, COIL, 330, COIL));
     parts.push(line(430, COIL, 460, COIL), line(460, COIL, 460, chassis ? 200 : RETURN));
+    parts.push(text(466, COIL + 24, feed.wire, "tl-size", "start"));
     parts.push(chassis ? chassisGround(460, 200) : dot(460, RETURN));
     parts.push(line(430, RAIL, 520, RAIL), text(475, RAIL - 8, size.text, sizeCls));
   } else {
@@ -148,9 +175,13 @@ export function wiringDiagramSvg(input: DiagramInput, result: CircuitResult, opt
     parts.push(text(300, RETURN - 8, `${size.text} return`, sizeCls));
   }
 
+  const switchFrom =
+    feed.from === "tap"
+      ? `The switch takes its feed from a separate tap behind its own ${num(feed.fuseA ?? 0)} A fuse on ${feed.wire} wire`
+      : `The switch takes its feed behind the main fuse on ${feed.wire} wire`;
   const path = relay
     ? `then ${size.text} wire to relay terminal 30; terminal 87 feeds the load through ${size.text} wire. ` +
-      `The switch takes its feed behind the fuse and drives coil terminal 86; coil terminal 85 goes to ground.`
+      `${switchFrom} and drives coil terminal 86; coil terminal 85 goes to ground on ${feed.wire} wire.`
     : `then ${size.text} wire through the switch to the load.`;
   const ground = chassis
     ? "The load returns through the vehicle chassis."

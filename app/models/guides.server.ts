@@ -2,7 +2,7 @@ import { asc, eq, inArray, like, sql } from "drizzle-orm";
 import { batch } from "~/db/batch.server";
 import type { Db } from "~/db/client.server";
 import { callouts, fitment, guides, media, parts, revisions, stepPhotos, steps, tools, variants } from "~/db/schema";
-import { storedCallout } from "~/engine/callouts";
+import { calloutRow, storedCallout } from "~/engine/callouts";
 import { runSafetyRules } from "~/engine/rules";
 import { renderBody } from "~/services/richtext.server";
 import { AppError, fromDbError, notFound } from "~/utils/errors";
@@ -200,8 +200,7 @@ export async function saveDraft(db: Db, guideId: number, actor: Actor, input: Dr
         disconnectsBattery: step.disconnectsBattery,
       }),
       ...step.callouts.map((callout, i) => {
-        const { kind, ...data } = callout;
-        return db.insert(callouts).values({ stepId: sql`${stepId(position)}`, position: i, kind, data });
+        return db.insert(callouts).values({ stepId: sql`${stepId(position)}`, position: i, ...calloutRow(callout) });
       }),
       ...step.photos.map((photo, i) => db.insert(stepPhotos).values({ stepId: sql`${stepId(position)}`, position: i, ...photo })),
     ]),

@@ -94,7 +94,9 @@ export default {
           caption: "Foot on the bar's T-track with the F3 fitting plate inboard.",
         },
       ],
-      callouts: [{ kind: "torque", fastener: "Foot-to-bar bolt", value: 6, unit: "N·m", size: "M6" }],
+      callouts: [
+        { kind: "torque", fastener: "Foot-to-bar bolt", valueSource: "accessory-maker", value: 6, unit: "N·m", size: "M6" },
+      ],
     },
     {
       title: "Place the bars on the rails",
@@ -144,18 +146,19 @@ export default {
         },
       ],
       callouts: [
-        { kind: "torque", fastener: "Crossbar clamp bolt", value: 7, unit: "N·m", size: "M6" },
-        {
-          kind: "torque",
-          fastener: "Crossbar clamp bolt (same value, inch-pound wrench)",
-          value: 62,
-          unit: "lbf·in",
-          size: "M6",
-        },
         {
           kind: "caution",
           signalWord: "NOTICE",
           text: "These values are the bar kit's. Where the vehicle maker gives a value for its rails, the maker's value governs. Over-tightening cracks the clamp or dents the rail.",
+        },
+        { kind: "torque", fastener: "Crossbar clamp bolt", valueSource: "accessory-maker", value: 7, unit: "N·m", size: "M6" },
+        {
+          kind: "torque",
+          fastener: "Crossbar clamp bolt (same value, inch-pound wrench)",
+          valueSource: "accessory-maker",
+          value: 62,
+          unit: "lbf·in",
+          size: "M6",
         },
       ],
     },

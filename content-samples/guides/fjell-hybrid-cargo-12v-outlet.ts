@@ -160,6 +160,11 @@ export default {
       ],
       callouts: [
         {
+          kind: "caution",
+          signalWord: "WARNING",
+          text: "Do not fit a larger fuse because an appliance blows the 15 A one. The fuse protects the 14 AWG wire; a bigger fuse can let the wire overheat and start a fire behind the trim.",
+        },
+        {
           kind: "circuit",
           label: "Cargo outlet feed (10 A)",
           systemVoltage: 12,
@@ -177,11 +182,8 @@ export default {
           switchRatingA: 10,
           relay: true,
           feed: "battery",
-        },
-        {
-          kind: "caution",
-          signalWord: "WARNING",
-          text: "Do not fit a larger fuse because an appliance blows the 15 A one. The fuse protects the 14 AWG wire; a bigger fuse can let the wire overheat and start a fire behind the trim.",
+          // The relay trigger comes from a 5 A add-a-circuit tap on 18 AWG, not from the outlet's fused line.
+          switchFeed: { from: "tap", fuseA: 5, wire: { awg: 18 } },
         },
       ],
     },
@@ -233,12 +235,12 @@ export default {
         },
       ],
       callouts: [
-        { kind: "torque", fastener: "12 V battery negative clamp nut", value: 5, unit: "N·m" },
         {
           kind: "caution",
           signalWord: "NOTICE",
           text: "The torque value is typical for this battery clamp; the vehicle maker's value governs. Follow the maker's instructions and local codes, and have a qualified technician check anything you are unsure of.",
         },
+        { kind: "torque", fastener: "12 V battery negative clamp nut", valueSource: "vehicle-maker", value: 5, unit: "N·m" },
       ],
     },
   ],

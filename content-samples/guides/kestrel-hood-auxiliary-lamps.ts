@@ -109,17 +109,18 @@ export default {
       ],
       callouts: [
         {
+          kind: "caution",
+          signalWord: "CAUTION",
+          text: "Never remove both hinge bolts on one side while the hood is open: the hood can drop or twist and trap your hands. Have a helper hold the hood when you move the bracket.",
+        },
+        {
           kind: "torque",
           fastener: "Hood hinge bolt through the lamp bracket",
+          valueSource: "accessory-maker",
           value: 24,
           unit: "N·m",
           size: "M8",
           propertyClass: "8.8",
-        },
-        {
-          kind: "caution",
-          signalWord: "CAUTION",
-          text: "Never remove both hinge bolts on one side while the hood is open: the hood can drop or twist and trap your hands. Have a helper hold the hood when you move the bracket.",
         },
         {
           kind: "tip",
@@ -152,6 +153,7 @@ export default {
         {
           kind: "torque",
           fastener: "Lamp pivot bolt (nyloc nut)",
+          valueSource: "accessory-maker",
           value: 18,
           unit: "N·m",
           size: "M8",
@@ -198,6 +200,11 @@ export default {
       ],
       callouts: [
         {
+          kind: "caution",
+          signalWord: "WARNING",
+          text: "Fit the fuse before any length of unprotected wire, and never fit a fuse larger than the one shown: a fuse bigger than the wire can carry lets a short circuit overheat the wire and start a fire.",
+        },
+        {
           kind: "circuit",
           label: "Auxiliary lamp feed (pair, 170 W)",
           systemVoltage: 12,
@@ -215,11 +222,8 @@ export default {
           switchRatingA: 10,
           relay: true,
           feed: "battery",
-        },
-        {
-          kind: "caution",
-          signalWord: "WARNING",
-          text: "Fit the fuse before any length of unprotected wire, and never fit a fuse larger than the one shown: a fuse bigger than the wire can carry lets a short circuit overheat the wire and start a fire.",
+          // Step 7: the switch and coil take their own 3 A fused tap in the cabin fuse box, on 18 AWG.
+          switchFeed: { from: "tap", fuseA: 3, wire: { awg: 18 } },
         },
       ],
     },
@@ -329,12 +333,12 @@ export default {
         },
       ],
       callouts: [
-        { kind: "torque", fastener: "Battery negative terminal clamp nut", value: 6, unit: "N·m" },
         {
           kind: "caution",
           signalWord: "NOTICE",
           text: "Off-road lamps aimed too high dazzle other drivers. Follow local lighting regulations and the vehicle maker's instructions; the torque values in this guide are for this kit, and the maker's values govern where they exist.",
         },
+        { kind: "torque", fastener: "Battery negative terminal clamp nut", valueSource: "vehicle-maker", value: 6, unit: "N·m" },
       ],
     },
   ],

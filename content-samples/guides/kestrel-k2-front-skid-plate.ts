@@ -38,7 +38,9 @@ export default {
           caption: "The finished plate covers the sump, front differential and steering rack.",
         },
       ],
+      // The support warning is read before the step that lifts the truck, and again in it.
       callouts: [
+        standsCaution,
         {
           kind: "tip",
           text: "Spray the splash-shield bolts and the frame's threaded holes with penetrating oil the evening before.",
@@ -113,6 +115,7 @@ export default {
         {
           kind: "torque",
           fastener: "Rear bracket to frame rail",
+          valueSource: "vehicle-maker",
           value: 45,
           unit: "N·m",
           size: "M10",
@@ -122,6 +125,7 @@ export default {
         {
           kind: "torque",
           fastener: "Bracket gusset nut (kit hardware; the kit maker gives no value)",
+          valueSource: "estimate",
           size: "M8",
           propertyClass: "8.8",
           estimate: true,
@@ -174,8 +178,24 @@ export default {
         },
       ],
       callouts: [
-        { kind: "torque", fastener: "Skid plate front bolt", value: 40, unit: "N·m", size: "M10", propertyClass: "8.8" },
-        { kind: "torque", fastener: "Skid plate rear bolt", value: 25, unit: "N·m", size: "M8", propertyClass: "8.8" },
+        {
+          kind: "torque",
+          fastener: "Skid plate front bolt",
+          valueSource: "accessory-maker",
+          value: 40,
+          unit: "N·m",
+          size: "M10",
+          propertyClass: "8.8",
+        },
+        {
+          kind: "torque",
+          fastener: "Skid plate rear bolt",
+          valueSource: "accessory-maker",
+          value: 25,
+          unit: "N·m",
+          size: "M8",
+          propertyClass: "8.8",
+        },
         {
           kind: "tip",
           text: "The values are for this plate's hardware. Where the vehicle maker gives a value for the crossmember or frame bolts, the maker's value governs.",

@@ -132,18 +132,19 @@ export default {
       ],
       callouts: [
         {
+          kind: "caution",
+          signalWord: "NOTICE",
+          text: "This value is the bracket maker's for this kit. Where the vehicle maker specifies a torque for these frame holes, the maker's value governs. Replace any bolt that has been over-tightened.",
+        },
+        {
           kind: "torque",
           fastener: "Recovery bracket to frame rail",
+          valueSource: "accessory-maker",
           value: 105,
           unit: "N·m",
           size: "M12",
           propertyClass: "10.9",
           threadlocker: "medium-strength, removable",
-        },
-        {
-          kind: "caution",
-          signalWord: "NOTICE",
-          text: "This value is the bracket maker's for this kit. Where the vehicle maker specifies a torque for these frame holes, the maker's value governs. Replace any bolt that has been over-tightened.",
         },
       ],
     },

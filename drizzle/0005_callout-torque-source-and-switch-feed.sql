@@ -1,0 +1,2 @@
+ALTER TABLE `callouts` ADD `torque_source` text;--> statement-breakpoint
+ALTER TABLE `callouts` ADD `switch_feed` text;
