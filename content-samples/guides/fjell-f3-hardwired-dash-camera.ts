@@ -4,7 +4,7 @@ export default {
   slug: "fjell-f3-hardwired-dash-camera",
   title: "Hard-wired dash camera from the cabin fuse box (Norvik Fjell F3)",
   summary:
-    "Power a front dash camera from the Fjell F3's cabin fuse box with an add-a-circuit fuse tap, routing the cable along the headliner and behind the A-pillar airbag.",
+    "Power a front dash camera from the Fjell F3's cabin fuse box with an piggyback fuse tap, routing the cable along the headliner and behind the A-pillar airbag.",
   category: "electronics",
   difficulty: 2,
   minutes: 75,
@@ -78,7 +78,7 @@ export default {
           "Never tap airbag, brake, steering or engine-management fuses.",
         ),
         p(
-          "Fit an add-a-circuit tap in each slot: the original fuse goes in the lower position, the 3 A fuse for the camera in the upper. ",
+          "Fit an piggyback fuse tap in each slot: the original fuse goes in the lower position, the 3 A fuse for the camera in the upper. ",
           i("PHEV fuse positions to be confirmed."),
         ),
       ),
@@ -87,7 +87,7 @@ export default {
       photos: [
         {
           file: "fuse-tap.svg",
-          alt: "Add-a-circuit fuse tap with two blade fuses in a fuse box",
+          alt: "Piggyback fuse tap with two blade fuses in a fuse box",
           caption: "Original fuse below, 3 A camera fuse above.",
         },
       ],
@@ -159,7 +159,7 @@ export default {
   parts: [
     { name: "Front dash camera with adhesive mount", quantity: 1, partNumber: "DC-F1", step: 0 },
     { name: "Hardwire kit with low-voltage cut-off", quantity: 1, partNumber: "HW-LVC3", step: 3 },
-    { name: "Add-a-circuit fuse tap (mini blade)", quantity: 2, partNumber: "FT-MINI", step: 2 },
+    { name: "Piggyback fuse tap (mini blade)", quantity: 2, partNumber: "FT-MINI", step: 2 },
     { name: "Blade fuse, 3 A (mini)", quantity: 2, step: 2 },
     { name: "Cable ties, 100 mm", quantity: 6, step: 1 },
   ],

@@ -141,7 +141,7 @@ export default {
           "Mount the fuse holder on the bracket on the battery well's front edge. Crimp its short lead to a ring terminal on the positive clamp's accessory stud. Fuse out for now.",
           "Mount the relay socket above the battery well on the body, terminals down.",
           "Relay 30: fused supply from the holder. Relay 87: 14 AWG feed to the outlet centre pin.",
-          "Relay 86: trigger from the switched accessory circuit, taken with an add-a-circuit tap (5 A) in the rear junction block behind the right side panel. Relay 85: to the body ground bolt in the battery well.",
+          "Relay 86: trigger from the switched accessory circuit, taken with an piggyback fuse tap (5 A) in the rear junction block behind the right side panel. Relay 85: to the body ground bolt in the battery well.",
         ),
       ),
       liftsVehicle: false,
@@ -182,7 +182,7 @@ export default {
           switchRatingA: 10,
           relay: true,
           feed: "battery",
-          // The relay trigger comes from a 5 A add-a-circuit tap on 18 AWG, not from the outlet's fused line.
+          // The relay trigger comes from a 5 A piggyback fuse tap on 18 AWG, not from the outlet's fused line.
           switchFeed: { from: "tap", fuseA: 5, wire: { awg: 18 } },
         },
       ],
@@ -272,7 +272,7 @@ export default {
     { name: "Weatherproof blade fuse holder, 14 AWG leads", quantity: 1, partNumber: "FH-14W", step: 4 },
     { name: "Blade fuse, 15 A", quantity: 2, notes: "One spare.", step: 4 },
     { name: "Automotive relay, 12 V 30/40 A, with socket", quantity: 1, partNumber: "RL-40S", step: 4 },
-    { name: "Add-a-circuit fuse tap (mini blade) with 5 A fuse", quantity: 1, partNumber: "FT-MINI", step: 4 },
+    { name: "Piggyback fuse tap (mini blade) with 5 A fuse", quantity: 1, partNumber: "FT-MINI", step: 4 },
     { name: "Wire, 14 AWG, 105 °C, red", quantity: 2, notes: "Metres.", step: 5 },
     { name: "Wire, 14 AWG, 105 °C, black", quantity: 2, notes: "Metres.", step: 5 },
     { name: "Wire, 18 AWG, relay trigger and ground", quantity: 3, notes: "Metres.", step: 4 },

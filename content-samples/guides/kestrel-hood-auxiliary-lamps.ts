@@ -267,7 +267,7 @@ export default {
         ol(
           "Pierce the grommet's spare nipple with an awl (never drill a bare hole in the firewall), push the wire through and seal it with a dab of neutral-cure silicone.",
           "Mount the illuminated switch in the dash blank.",
-          "Feed the switch from an ignition-switched circuit in the cabin fuse box with an add-a-circuit fuse tap and a 3 A fuse, so the lamps cannot be left on with the truck parked.",
+          "Feed the switch from an ignition-switched circuit in the cabin fuse box with an piggyback fuse tap and a 3 A fuse, so the lamps cannot be left on with the truck parked.",
           "Ground the switch illumination to the body bolt next to the fuse box.",
         ),
       ),
@@ -281,8 +281,8 @@ export default {
         },
         {
           file: "fuse-tap.svg",
-          alt: "An add-a-circuit fuse tap holding two blade fuses plugged into a fuse box slot",
-          caption: "Add-a-circuit tap: the original fuse below, the new 3 A fuse above.",
+          alt: "An piggyback fuse tap holding two blade fuses plugged into a fuse box slot",
+          caption: "Piggyback fuse tap: the original fuse below, the new 3 A fuse above.",
         },
       ],
       callouts: [
@@ -373,7 +373,7 @@ export default {
     { name: "Wire, 18 AWG, 105 °C", quantity: 4, notes: "Metres, switch and coil.", step: 6 },
     { name: "Split loom, 10 mm", quantity: 5, notes: "Metres.", step: 5 },
     { name: "Illuminated rocker switch, 12 V", quantity: 1, partNumber: "SW-RK12", step: 6 },
-    { name: "Add-a-circuit fuse tap (mini blade)", quantity: 1, partNumber: "FT-MINI", step: 6 },
+    { name: "Piggyback fuse tap (mini blade)", quantity: 1, partNumber: "FT-MINI", step: 6 },
     { name: "Blade fuse, 3 A (mini)", quantity: 1, step: 6 },
     { name: "Adhesive-lined heat shrink and ring terminals assortment", quantity: 1, step: 4 },
   ],
