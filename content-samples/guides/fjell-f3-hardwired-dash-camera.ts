@@ -4,7 +4,7 @@ export default {
   slug: "fjell-f3-hardwired-dash-camera",
   title: "Hard-wired dash camera from the cabin fuse box (Norvik Fjell F3)",
   summary:
-    "Power a front dash camera from the Fjell F3's cabin fuse box with an piggyback fuse tap, routing the cable along the headliner and behind the A-pillar airbag.",
+    "Power a front dash camera from the Fjell F3's cabin fuse box with a piggyback fuse tap, routing the cable along the headliner and behind the A-pillar airbag.",
   category: "electronics",
   difficulty: 2,
   minutes: 75,
@@ -78,7 +78,7 @@ export default {
           "Never tap airbag, brake, steering or engine-management fuses.",
         ),
         p(
-          "Fit an piggyback fuse tap in each slot: the original fuse goes in the lower position, the 3 A fuse for the camera in the upper. ",
+          "Fit a piggyback fuse tap in each slot: the original fuse goes in the lower position, the 3 A fuse for the camera in the upper. ",
           i("PHEV fuse positions to be confirmed."),
         ),
       ),

@@ -141,7 +141,7 @@ export default {
           "Mount the fuse holder on the bracket on the battery well's front edge. Crimp its short lead to a ring terminal on the positive clamp's accessory stud. Fuse out for now.",
           "Mount the relay socket above the battery well on the body, terminals down.",
           "Relay 30: fused supply from the holder. Relay 87: 14 AWG feed to the outlet centre pin.",
-          "Relay 86: trigger from the switched accessory circuit, taken with an piggyback fuse tap (5 A) in the rear junction block behind the right side panel. Relay 85: to the body ground bolt in the battery well.",
+          "Relay 86: trigger from the switched accessory circuit, taken with a piggyback fuse tap (5 A) in the rear junction block behind the right side panel. Relay 85: to the body ground bolt in the battery well.",
         ),
       ),
       liftsVehicle: false,

@@ -183,7 +183,7 @@ export default {
     {
       variant: "fjell-f3-gas-awd",
       status: "fits-with-changes",
-      note: "Battery in the engine bay: take the feed from the cabin fuse box with an piggyback fuse tap instead.",
+      note: "Battery in the engine bay: take the feed from the cabin fuse box with a piggyback fuse tap instead.",
     },
   ],
   parts: [

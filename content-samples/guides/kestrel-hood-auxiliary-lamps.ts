@@ -267,7 +267,7 @@ export default {
         ol(
           "Pierce the grommet's spare nipple with an awl (never drill a bare hole in the firewall), push the wire through and seal it with a dab of neutral-cure silicone.",
           "Mount the illuminated switch in the dash blank.",
-          "Feed the switch from an ignition-switched circuit in the cabin fuse box with an piggyback fuse tap and a 3 A fuse, so the lamps cannot be left on with the truck parked.",
+          "Feed the switch from an ignition-switched circuit in the cabin fuse box with a piggyback fuse tap and a 3 A fuse, so the lamps cannot be left on with the truck parked.",
           "Ground the switch illumination to the body bolt next to the fuse box.",
         ),
       ),
