@@ -77,11 +77,16 @@ export function TorqueCallout({
       </div>
       {values ? (
         <p className="mt-1 font-mono text-lg tabular-nums text-ink" data-testid="torque-values">
-          <strong className="whitespace-nowrap text-2xl">{quantity(round(values.nm, 1), "N·m")}</strong>
-          <span className="mx-2 text-ink-soft">=</span>
-          <span className="whitespace-nowrap">{quantity(round(values.lbfFt, 1), "lbf·ft")}</span>
-          <span className="mx-2 text-ink-soft">=</span>
-          <span className="whitespace-nowrap">{quantity(round(values.lbfIn, 0), "lbf·in")}</span>
+          {/* Each value keeps its unit; the line may break only before an "=". */}
+          <strong className="whitespace-nowrap text-2xl">{quantity(round(values.nm, 1), "N·m")}</strong>{" "}
+          <span className="whitespace-nowrap">
+            <span className="mr-2 text-ink-soft">=</span>
+            {quantity(round(values.lbfFt, 1), "lbf·ft")}
+          </span>{" "}
+          <span className="whitespace-nowrap">
+            <span className="mr-2 text-ink-soft">=</span>
+            {quantity(round(values.lbfIn, 0), "lbf·in")}
+          </span>
         </p>
       ) : null}
       <p className="mt-1 text-sm" data-testid="torque-source">

@@ -11,13 +11,14 @@ export const SCREENSHOT_DIR = join(process.cwd(), "test-results", "screenshots")
  * network and out of first-run prompts.
  */
 export async function launchBrowser(
-  options: { viewport?: { width: number; height: number }; javaScriptEnabled?: boolean } = {},
+  options: { viewport?: { width: number; height: number }; javaScriptEnabled?: boolean; timezoneId?: string } = {},
 ): Promise<BrowserContext> {
   return chromium.launchPersistentContext(mkdtempSync(join(tmpdir(), "torqueleaf-chromium-")), {
     executablePath: process.env.CHROMIUM_PATH ?? "/usr/bin/chromium",
     headless: true,
     viewport: options.viewport ?? { width: 1280, height: 900 },
     javaScriptEnabled: options.javaScriptEnabled ?? true,
+    timezoneId: options.timezoneId,
     args: [
       "--headless",
       "--no-sandbox",
