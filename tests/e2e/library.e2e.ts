@@ -47,7 +47,8 @@ it("labels an estimated torque as an estimate and shows all three units", async 
   await page.goto(`${origin}/guides/kestrel-k2-front-skid-plate`);
   const all = await page.getByTestId("torque-values").allTextContents();
   // ISO 898-1 proof load for M8 class 8.8 (21 200 N), K = 0.20 dry: T = 0.20 × 0.75 × 21 200 N × 8 mm ≈ 25.4 N·m.
-  const estimated = all.find((t) => t.includes("25.4 N·m")) ?? "";
+  // Values are joined to their units by a no-break space; compare with plain spaces.
+  const estimated = all.map((t) => t.replace(/\s+/g, " ")).find((t) => t.includes("25.4 N·m")) ?? "";
   expect(estimated).toMatch(/N·m.*lbf·ft.*lbf·in/);
   expect(await page.getByText("Estimate", { exact: true }).count()).toBeGreaterThan(0);
   expect(await page.getByText(/maker's value governs/).count()).toBeGreaterThan(0);
