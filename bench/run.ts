@@ -42,8 +42,26 @@ const rebuild = args.includes("--rebuild");
 const scalePath = option(args, "scale");
 
 const plan = quick
-  ? { warmupSeconds: 1, seconds: 3, readerSeconds: 15, modelRuns: 50, scaleRuns: 30, scaleHttpSeconds: 3 }
-  : { warmupSeconds: 3, seconds: 10, readerSeconds: 60, modelRuns: 300, scaleRuns: 100, scaleHttpSeconds: 10 };
+  ? {
+      warmupSeconds: 1,
+      seconds: 3,
+      readerSeconds: 15,
+      modelRuns: 50,
+      scaleRuns: 30,
+      scaleBudgetMs: 5_000,
+      scaleCaseLimitMs: 60_000,
+      scaleHttpSeconds: 3,
+    }
+  : {
+      warmupSeconds: 3,
+      seconds: 10,
+      readerSeconds: 60,
+      modelRuns: 300,
+      scaleRuns: 100,
+      scaleBudgetMs: 20_000,
+      scaleCaseLimitMs: 300_000,
+      scaleHttpSeconds: 10,
+    };
 
 const started = Date.now();
 const [load1] = loadavg();
@@ -203,7 +221,14 @@ try {
     await runModels(demo.databaseFile, plan.modelRuns);
   } else if (scalePath) {
     await buildTorqueleaf();
-    await runScale(scalePath, { port: TORQUELEAF_PORT + 1, runs: plan.scaleRuns, httpSeconds: plan.scaleHttpSeconds });
+    await runScale(scalePath, {
+      port: TORQUELEAF_PORT + 1,
+      runs: plan.scaleRuns,
+      budgetMs: plan.scaleBudgetMs,
+      caseLimitMs: plan.scaleCaseLimitMs,
+      httpSeconds: plan.scaleHttpSeconds,
+      onCleanup: (step) => cleanups.push(step),
+    });
   } else {
     await mainRun();
   }

@@ -6,52 +6,56 @@
  *           replayed straight on the libSQL client: what the model costs above its own SQL;
  *   HTTP  — GET /api/guides with the same query string, one request at a time, against the
  *           production server (`npm start`'s settings) on the same copy.
- * Then the server's resident memory after start-up, and after the HTTP runs.
+ * Each in-process case runs in a child process (bench/scale-case.ts) ended past a time limit, since
+ * a slow SQLite statement cannot be interrupted. Then the server's resident memory after start-up,
+ * and after the HTTP runs.
  */
+import { spawn } from "node:child_process";
 import { copyFileSync, existsSync, mkdtempSync, rmSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
-import type { InArgs } from "@libsql/client";
 import { sql } from "drizzle-orm";
-import { drizzle } from "drizzle-orm/libsql";
-import { memory, runLoad, startTorqueleaf } from "./servers";
-import { formatMiB, formatMs, formatRatio, formatTable, goalMark, ratio, summarize } from "./stats";
-import { timeRuns } from "./timing";
+import type { ScaleCaseJob } from "./scale-case";
+import { memory, ROOT, runLoad, startTorqueleaf } from "./servers";
+import { formatMiB, formatMs, formatRatio, formatTable, goalMark, ratio, type Summary } from "./stats";
 
 /** The product's goals for the Library at 20,000 guides. */
 export const GOALS = { filterP99Ms: 15, searchP99Ms: 30, overRaw: 1.5, rssBytes: 300 * 1024 * 1024 };
 
 type Case = { label: string; kind: "filter" | "search"; query: string };
 
-export async function runScale(path: string, options: { port: number; runs: number; httpSeconds: number }) {
+export async function runScale(
+  path: string,
+  options: {
+    port: number;
+    runs: number;
+    budgetMs: number;
+    caseLimitMs: number;
+    httpSeconds: number;
+    onCleanup: (step: () => void) => void;
+  },
+) {
   if (!existsSync(path))
     throw new Error(`${path} does not exist: write it with npm run bench:data -- --guides 20000 --db ${path}`);
   const dir = mkdtempSync(join(tmpdir(), "torqueleaf-bench-scale-"));
+  options.onCleanup(() => rmSync(dir, { recursive: true, force: true }));
   try {
     const file = join(dir, "torqueleaf.db");
     copyFileSync(path, file);
     if (existsSync(`${path}-wal`)) copyFileSync(`${path}-wal`, `${file}-wal`);
-    const cases = await measureInProcess(file, options.runs);
+    const cases = await measureInProcess(file, options.runs, options.budgetMs, options.caseLimitMs);
     await measureHttp(cases, file, join(dir, "data"), options);
   } finally {
     rmSync(dir, { recursive: true, force: true });
   }
 }
 
-type Measured = Case & { model: { p50: number; p99: number }; raw: { p50: number; p99: number }; statements: number };
+type Measured = Case & { model: Summary; raw: Summary; statements: number; timedOut?: boolean };
 
-async function measureInProcess(file: string, runs: number): Promise<Measured[]> {
+async function measureInProcess(file: string, runs: number, budgetMs: number, caseLimitMs: number): Promise<Measured[]> {
   const { createDb, configure } = await import("~/db/client.server");
-  const schema = await import("~/db/schema");
-  const { listPublishedGuides, parseLibraryQuery } = await import("~/models/library.server");
-  const { client } = createDb(`file:${file}`);
+  const { client, db } = createDb(`file:${file}`);
   await configure(client, `file:${file}`);
-  let capture: { sql: string; args: InArgs }[] | null = null;
-  const db = drizzle(client, {
-    schema,
-    casing: "snake_case",
-    logger: { logQuery: (query, params) => capture?.push({ sql: query, args: params as InArgs }) },
-  });
 
   // The busiest vehicle (generation and powertrain) of the catalogue, and a year it covers.
   const top = await db.get<{
@@ -90,49 +94,83 @@ async function measureInProcess(file: string, runs: number): Promise<Measured[]>
     { label: "search, two terms (relay bracket)", kind: "search", query: "q=relay+bracket" },
   ];
   console.log(
-    `\nScale: ${guides} published guides; vehicle ${top.make}/${top.model}/${top.generation} (${top.powertrain}, ${top.guides} guides on its busiest variant); ${runs} runs each in-process\n`,
+    `\nScale: ${guides} published guides; vehicle ${top.make}/${top.model}/${top.generation} (${top.powertrain}, ${top.guides} guides on its busiest variant); up to ${runs} runs (or ${budgetMs / 1000} s) each in a process of its own, after one unmeasured, each case ended after ${caseLimitMs / 1000} s\n`,
   );
 
+  client.close();
   const measured: Measured[] = [];
   for (const c of cases) {
-    const query = parseLibraryQuery(new URLSearchParams(c.query));
-    const statements: { sql: string; args: InArgs }[] = [];
-    capture = statements;
-    await listPublishedGuides(db, query);
-    capture = null;
-    const model = summarize(await timeRuns(runs, () => listPublishedGuides(db, query)));
-    const raw = summarize(
-      await timeRuns(runs, async () => {
-        for (const statement of statements) await client.execute(statement);
-      }),
-    );
-    measured.push({ ...c, model, raw, statements: statements.length });
+    process.stderr.write(`  ${c.label}…\n`);
+    measured.push({ ...c, ...(await measureCase({ file, query: c.query, runs, budgetMs }, caseLimitMs)) });
   }
-  client.close();
 
   const rows = measured.map((m) => {
     const goal = m.kind === "filter" ? GOALS.filterP99Ms : GOALS.searchP99Ms;
     const over = ratio(m.model.p99, m.raw.p99);
     return [
       m.label,
+      m.timedOut ? `> ${caseLimitMs / 1000} s` : String(m.model.n),
       formatMs(m.model.p50),
       formatMs(m.model.p99),
+      String(m.raw.n),
       formatMs(m.raw.p50),
       formatMs(m.raw.p99),
       String(m.statements),
       formatRatio(over),
-      `≤ ${goal} ms: ${goalMark(m.model.p99, goal)}`,
+      `≤ ${goal} ms: ${m.timedOut ? "MISSED" : goalMark(m.model.p99, goal)}`,
       `≤ ${GOALS.overRaw}×: ${goalMark(over, GOALS.overRaw)}`,
     ];
   });
   console.log(
     formatTable(
-      ["Library query", "model p50", "model p99", "raw p50", "raw p99", "stmts", "p99 ÷ raw", "goal p99", "goal ÷ raw"],
+      [
+        "Library query",
+        "model n",
+        "model p50",
+        "model p99",
+        "raw n",
+        "raw p50",
+        "raw p99",
+        "stmts",
+        "p99 ÷ raw",
+        "goal p99",
+        "goal ÷ raw",
+      ],
       rows,
     ),
   );
-  console.log("(milliseconds; raw = the same statements replayed on the libSQL client, one after the other)");
+  console.log(
+    `(milliseconds; raw = the same statements replayed on the libSQL client, one after the other; n = runs measured, "> ${caseLimitMs / 1000} s" = ended unfinished)`,
+  );
   return measured;
+}
+
+const NOT_MEASURED: Summary = { n: 0, p50: Number.NaN, p99: Number.NaN, mean: Number.NaN };
+
+/** Runs one case in its own process; past `limitMs` it is ended and reported as timed out. */
+function measureCase(job: ScaleCaseJob, limitMs: number): Promise<Pick<Measured, "model" | "raw" | "statements" | "timedOut">> {
+  return new Promise((done, fail) => {
+    const child = spawn(process.execPath, ["--import", "tsx", join(ROOT, "bench", "scale-case.ts"), JSON.stringify(job)], {
+      cwd: ROOT,
+      stdio: ["ignore", "pipe", "pipe"],
+    });
+    let stdout = "";
+    let stderr = "";
+    let timedOut = false;
+    child.stdout.on("data", (chunk) => (stdout += chunk));
+    child.stderr.on("data", (chunk) => (stderr += chunk));
+    const timer = setTimeout(() => {
+      timedOut = true;
+      child.kill("SIGKILL");
+    }, limitMs);
+    child.on("error", fail);
+    child.on("exit", (code) => {
+      clearTimeout(timer);
+      if (timedOut) done({ model: NOT_MEASURED, raw: NOT_MEASURED, statements: 0, timedOut: true });
+      else if (code !== 0) fail(new Error(`measuring ${job.query} failed (${code}): ${stderr.slice(-2000)}`));
+      else done(JSON.parse(stdout.trim().split("\n").at(-1) ?? "{}"));
+    });
+  });
 }
 
 async function measureHttp(cases: Measured[], file: string, dataDir: string, options: { port: number; httpSeconds: number }) {
@@ -141,6 +179,11 @@ async function measureHttp(cases: Measured[], file: string, dataDir: string, opt
     const loaded = memory(app.pid);
     const rows: string[][] = [];
     for (const c of cases) {
+      if (c.timedOut) {
+        // Its statements would hold the server's only thread for minutes and stall every case after it.
+        rows.push([c.label, "–", "–", "–", "–", "–", "–", "not run: ended unfinished in-process"]);
+        continue;
+      }
       const path = `/api/guides${c.query ? `?${c.query}` : ""}`;
       await runLoad({ kind: "readers", origin: app.origin, paths: [path], readers: 1, thinkMs: 0, seconds: 1 });
       const r = await runLoad({
