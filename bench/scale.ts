@@ -1,0 +1,224 @@
+/**
+ * `npm run bench -- --scale PATH`: the Library at scale, on a copy of a `npm run bench:data`
+ * database. For each filter and search:
+ *   model — `listPublishedGuides` in-process (page of guides, total, five facets, their fitment);
+ *   raw   — the very statements that call sent to SQLite (captured through Drizzle's logger),
+ *           replayed straight on the libSQL client: what the model costs above its own SQL;
+ *   HTTP  — GET /api/guides with the same query string, one request at a time, against the
+ *           production server (`npm start`'s settings) on the same copy.
+ * Each in-process case runs in a child process (bench/scale-case.ts) ended past a time limit, since
+ * a slow SQLite statement cannot be interrupted. Then the server's resident memory after start-up,
+ * and after the HTTP runs.
+ */
+import { spawn } from "node:child_process";
+import { copyFileSync, existsSync, mkdtempSync, rmSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+import { sql } from "drizzle-orm";
+import type { ScaleCaseJob } from "./scale-case";
+import { memory, ROOT, runLoad, startTorqueleaf } from "./servers";
+import { formatMiB, formatMs, formatRatio, formatTable, goalMark, ratio, type Summary } from "./stats";
+
+/** The product's goals for the Library at 20,000 guides. */
+export const GOALS = { filterP99Ms: 15, searchP99Ms: 30, overRaw: 1.5, rssBytes: 300 * 1024 * 1024 };
+
+type Case = { label: string; kind: "filter" | "search"; query: string };
+
+export async function runScale(
+  path: string,
+  options: {
+    port: number;
+    runs: number;
+    budgetMs: number;
+    caseLimitMs: number;
+    httpSeconds: number;
+    onCleanup: (step: () => void) => void;
+  },
+) {
+  if (!existsSync(path))
+    throw new Error(`${path} does not exist: write it with npm run bench:data -- --guides 20000 --db ${path}`);
+  const dir = mkdtempSync(join(tmpdir(), "torqueleaf-bench-scale-"));
+  options.onCleanup(() => rmSync(dir, { recursive: true, force: true }));
+  try {
+    const file = join(dir, "torqueleaf.db");
+    copyFileSync(path, file);
+    if (existsSync(`${path}-wal`)) copyFileSync(`${path}-wal`, `${file}-wal`);
+    const cases = await measureInProcess(file, options.runs, options.budgetMs, options.caseLimitMs);
+    await measureHttp(cases, file, join(dir, "data"), options);
+  } finally {
+    rmSync(dir, { recursive: true, force: true });
+  }
+}
+
+type Measured = Case & { model: Summary; raw: Summary; statements: number; timedOut?: boolean };
+
+async function measureInProcess(file: string, runs: number, budgetMs: number, caseLimitMs: number): Promise<Measured[]> {
+  const { createDb, configure } = await import("~/db/client.server");
+  const { client, db } = createDb(`file:${file}`);
+  await configure(client, `file:${file}`);
+
+  // The busiest vehicle (generation and powertrain) of the catalogue, and a year it covers.
+  const top = await db.get<{
+    make: string;
+    model: string;
+    generation: string;
+    powertrain: string;
+    year: number;
+    guides: number;
+  }>(sql`
+    SELECT mk.slug AS make, mo.slug AS model, gen.slug AS generation, v.powertrain, gen.first_year + 1 AS year,
+      count(DISTINCT g.id) AS guides
+    FROM guides g JOIN fitment f ON f.revision_id = g.published_revision_id
+    JOIN variants v ON v.id = f.variant_id JOIN generations gen ON gen.id = v.generation_id
+    JOIN models mo ON mo.id = gen.model_id JOIN makes mk ON mk.id = mo.make_id
+    WHERE g.state = 'published' GROUP BY v.id ORDER BY guides DESC LIMIT 1`);
+  const [{ n: guides } = { n: 0 }] = await db.all<{ n: number }>(sql`SELECT count(*) AS n FROM guides WHERE state = 'published'`);
+  if (!top) throw new Error("the scale database has no published guide with fitment");
+  const vehicle = `make=${top.make}&model=${top.model}&generation=${top.generation}`;
+  const cases: Case[] = [
+    {
+      label: "vehicle + powertrain + category",
+      kind: "filter",
+      query: `${vehicle}&powertrain=${top.powertrain}&category=lighting`,
+    },
+    { label: "year", kind: "filter", query: `year=${top.year}` },
+    { label: "facet: vehicle", kind: "filter", query: vehicle },
+    { label: "facet: powertrain", kind: "filter", query: `powertrain=${top.powertrain}` },
+    { label: "facet: drivetrain", kind: "filter", query: "drivetrain=AWD" },
+    { label: "facet: category", kind: "filter", query: "category=lighting" },
+    { label: "facet: difficulty", kind: "filter", query: "difficulty=3" },
+    { label: "no filter", kind: "filter", query: "" },
+    { label: "search, common term (harness)", kind: "search", query: "q=harness" },
+    { label: "search, common term + filter", kind: "search", query: `q=harness&powertrain=${top.powertrain}` },
+    { label: "search, rare term (snowlatch)", kind: "search", query: "q=snowlatch" },
+    { label: "search, two terms (relay bracket)", kind: "search", query: "q=relay+bracket" },
+  ];
+  console.log(
+    `\nScale: ${guides} published guides; vehicle ${top.make}/${top.model}/${top.generation} (${top.powertrain}, ${top.guides} guides on its busiest variant); up to ${runs} runs (or ${budgetMs / 1000} s) each in a process of its own, after one unmeasured, each case ended after ${caseLimitMs / 1000} s\n`,
+  );
+
+  client.close();
+  const measured: Measured[] = [];
+  for (const c of cases) {
+    process.stderr.write(`  ${c.label}…\n`);
+    measured.push({ ...c, ...(await measureCase({ file, query: c.query, runs, budgetMs }, caseLimitMs)) });
+  }
+
+  const rows = measured.map((m) => {
+    const goal = m.kind === "filter" ? GOALS.filterP99Ms : GOALS.searchP99Ms;
+    const over = ratio(m.model.p99, m.raw.p99);
+    return [
+      m.label,
+      m.timedOut ? `> ${caseLimitMs / 1000} s` : String(m.model.n),
+      formatMs(m.model.p50),
+      formatMs(m.model.p99),
+      String(m.raw.n),
+      formatMs(m.raw.p50),
+      formatMs(m.raw.p99),
+      String(m.statements),
+      formatRatio(over),
+      `≤ ${goal} ms: ${m.timedOut ? "MISSED" : goalMark(m.model.p99, goal)}`,
+      `≤ ${GOALS.overRaw}×: ${goalMark(over, GOALS.overRaw)}`,
+    ];
+  });
+  console.log(
+    formatTable(
+      [
+        "Library query",
+        "model n",
+        "model p50",
+        "model p99",
+        "raw n",
+        "raw p50",
+        "raw p99",
+        "stmts",
+        "p99 ÷ raw",
+        "goal p99",
+        "goal ÷ raw",
+      ],
+      rows,
+    ),
+  );
+  console.log(
+    `(milliseconds; raw = the same statements replayed on the libSQL client, one after the other; n = runs measured, "> ${caseLimitMs / 1000} s" = ended unfinished)`,
+  );
+  return measured;
+}
+
+const NOT_MEASURED: Summary = { n: 0, p50: Number.NaN, p99: Number.NaN, mean: Number.NaN };
+
+/** Runs one case in its own process; past `limitMs` it is ended and reported as timed out. */
+function measureCase(job: ScaleCaseJob, limitMs: number): Promise<Pick<Measured, "model" | "raw" | "statements" | "timedOut">> {
+  return new Promise((done, fail) => {
+    const child = spawn(process.execPath, ["--import", "tsx", join(ROOT, "bench", "scale-case.ts"), JSON.stringify(job)], {
+      cwd: ROOT,
+      stdio: ["ignore", "pipe", "pipe"],
+    });
+    let stdout = "";
+    let stderr = "";
+    let timedOut = false;
+    child.stdout.on("data", (chunk) => (stdout += chunk));
+    child.stderr.on("data", (chunk) => (stderr += chunk));
+    const timer = setTimeout(() => {
+      timedOut = true;
+      child.kill("SIGKILL");
+    }, limitMs);
+    child.on("error", fail);
+    child.on("exit", (code) => {
+      clearTimeout(timer);
+      if (timedOut) done({ model: NOT_MEASURED, raw: NOT_MEASURED, statements: 0, timedOut: true });
+      else if (code !== 0) fail(new Error(`measuring ${job.query} failed (${code}): ${stderr.slice(-2000)}`));
+      else done(JSON.parse(stdout.trim().split("\n").at(-1) ?? "{}"));
+    });
+  });
+}
+
+async function measureHttp(cases: Measured[], file: string, dataDir: string, options: { port: number; httpSeconds: number }) {
+  const app = await startTorqueleaf(options.port, file, dataDir);
+  try {
+    const loaded = memory(app.pid);
+    const rows: string[][] = [];
+    for (const c of cases) {
+      if (c.timedOut) {
+        // Its statements would hold the server's only thread for minutes and stall every case after it.
+        rows.push([c.label, "–", "–", "–", "–", "–", "–", "not run: ended unfinished in-process"]);
+        continue;
+      }
+      const path = `/api/guides${c.query ? `?${c.query}` : ""}`;
+      await runLoad({ kind: "readers", origin: app.origin, paths: [path], readers: 1, thinkMs: 0, seconds: 1 });
+      const r = await runLoad({
+        kind: "readers",
+        origin: app.origin,
+        paths: [path],
+        readers: 1,
+        thinkMs: 0,
+        seconds: options.httpSeconds,
+      });
+      const goal = c.kind === "filter" ? GOALS.filterP99Ms : GOALS.searchP99Ms;
+      rows.push([
+        c.label,
+        String(r.requests),
+        String(r.errors),
+        formatMs(r.p50),
+        formatMs(r.p99),
+        formatMs(c.model.p99),
+        formatRatio(ratio(r.p99, c.model.p99)),
+        `≤ ${goal} ms: ${goalMark(r.p99, goal)}`,
+      ]);
+    }
+    const after = memory(app.pid);
+    console.log(
+      `\nThe same over HTTP: GET /api/guides?…, one request at a time, ${options.httpSeconds} s each (Torqueleaf, production build)\n`,
+    );
+    console.log(
+      formatTable(["Library query", "requests", "errors", "p50 ms", "p99 ms", "model p99", "HTTP ÷ model p99", "goal p99"], rows),
+    );
+    const goal = GOALS.rssBytes;
+    console.log(
+      `\nserver RSS after loading the database (start-up, first page): ${formatMiB(loaded.rss)} (goal ≤ ${formatMiB(goal)}: ${goalMark(loaded.rss, goal)}); ` +
+        `after the HTTP runs: ${formatMiB(after.rss)} (${goalMark(after.rss, goal)}), peak ${formatMiB(after.peak)} (${goalMark(after.peak, goal)})`,
+    );
+  } finally {
+    await app.stop();
+  }
+}
