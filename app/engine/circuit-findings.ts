@@ -84,46 +84,56 @@ function noFuse({ input, recommendedFuseA }: Context): CircuitFinding[] {
   ];
 }
 
-function fuseAgainstWire({ input, chosen }: Context): CircuitFinding[] {
-  const fuseA = input.fuseA;
-  if (typeof fuseA !== "number" || chosen === null) return [];
-  if (chosen.ampacityA === null) {
-    return [
-      {
-        rule: "wire-unrated",
-        severity: "warning",
-        message: `${chosen.label} is thinner than 18 AWG, the smallest size in the ampacity table, so nothing here shows that the ${num(fuseA)} A fuse protects it. Use 1 mm² or heavier.`,
-        source: "cfr-183-425",
-        numbers: { fuseA },
-      },
-    ];
+type WireWords = {
+  /** The wire is thinner than the ampacity table: nothing shows the fuse protects it. */
+  unrated: string;
+  /** The fuse is above 150 % of the wire's ampacity (blocking, under `exceedsRule`). */
+  exceeds: (ampacity: number, limitA: number) => string;
+  /** The fuse is above the wire's ampacity but within 150 % (warning). */
+  above: (ampacity: number) => string;
+  exceedsRule: "fuse-exceeds-wire" | "switch-feed-exceeds-wire";
+};
+
+/**
+ * Whether a fuse protects a wire (33 CFR 183.455: at most 150 % of the wire's ampacity), the same
+ * check for the main run and the switch feed; only the wording and the blocking rule's id differ.
+ */
+function fuseProtectsWire(fuseA: number, ampacityA: number | null, words: WireWords): CircuitFinding[] {
+  if (ampacityA === null) {
+    return [{ rule: "wire-unrated", severity: "warning", message: words.unrated, source: "cfr-183-425", numbers: { fuseA } }];
   }
-  const ampacity = chosen.ampacityA;
-  const limitA = FUSE_TO_AMPACITY_LIMIT * ampacity;
-  const numbers = { fuseA, ampacityA: ampacity, limitA };
+  const limitA = FUSE_TO_AMPACITY_LIMIT * ampacityA;
+  const numbers = { fuseA, ampacityA, limitA };
   if (fuseA > limitA) {
     return [
       {
-        rule: "fuse-exceeds-wire",
+        rule: words.exceedsRule,
         severity: "blocking",
-        message: `The ${num(fuseA)} A fuse is more than 150 % of what ${chosen.label} may carry here (${num(ampacity)} A, so at most ${num(limitA)} A): the wire could overheat before the fuse opens.`,
+        message: words.exceeds(ampacityA, limitA),
         source: "cfr-183-455",
         numbers,
       },
     ];
   }
-  if (fuseA > ampacity) {
+  if (fuseA > ampacityA) {
     return [
-      {
-        rule: "fuse-above-ampacity",
-        severity: "warning",
-        message: `The ${num(fuseA)} A fuse is above the ${num(ampacity)} A that ${chosen.label} may carry here; the fuse is there to protect the wire, so choose one no larger than the wire's ampacity or a heavier wire.`,
-        source: "common-practice",
-        numbers,
-      },
+      { rule: "fuse-above-ampacity", severity: "warning", message: words.above(ampacityA), source: "common-practice", numbers },
     ];
   }
   return [];
+}
+
+function fuseAgainstWire({ input, chosen }: Context): CircuitFinding[] {
+  const fuseA = input.fuseA;
+  if (typeof fuseA !== "number" || chosen === null) return [];
+  return fuseProtectsWire(fuseA, chosen.ampacityA, {
+    unrated: `${chosen.label} is thinner than 18 AWG, the smallest size in the ampacity table, so nothing here shows that the ${num(fuseA)} A fuse protects it. Use 1 mm² or heavier.`,
+    exceeds: (ampacity, limitA) =>
+      `The ${num(fuseA)} A fuse is more than 150 % of what ${chosen.label} may carry here (${num(ampacity)} A, so at most ${num(limitA)} A): the wire could overheat before the fuse opens.`,
+    above: (ampacity) =>
+      `The ${num(fuseA)} A fuse is above the ${num(ampacity)} A that ${chosen.label} may carry here; the fuse is there to protect the wire, so choose one no larger than the wire's ampacity or a heavier wire.`,
+    exceedsRule: "fuse-exceeds-wire",
+  });
 }
 
 /**
@@ -196,43 +206,15 @@ function switchFeedAgainstWire({ switchFeed }: Context): CircuitFinding[] {
   const which =
     switchFeed.fuseIs === "tap" ? `its own ${num(fuseA)} A fuse` : `the ${num(fuseA)} A ${switchFeed.fuseIs} main fuse`;
   const branch = switchFeed.from === "tap" ? "the separate switch feed" : "the switch feed taken from the main fused line";
-  if (switchFeed.ampacityA === null) {
-    return [
-      {
-        rule: "wire-unrated",
-        severity: "warning",
-        message: `The ${switchFeed.label} wire of ${branch} is thinner than 18 AWG, the smallest size in the ampacity table, so nothing here shows that ${which} protects it. Use 1 mm² or heavier.`,
-        source: "cfr-183-425",
-        numbers: { fuseA },
-      },
-    ];
-  }
-  const ampacity = switchFeed.ampacityA;
-  const limitA = FUSE_TO_AMPACITY_LIMIT * ampacity;
-  const numbers = { fuseA, ampacityA: ampacity, limitA };
-  if (fuseA > limitA) {
-    return [
-      {
-        rule: "switch-feed-exceeds-wire",
-        severity: "blocking",
-        message: `${branch.charAt(0).toUpperCase()}${branch.slice(1)} is ${switchFeed.label}, which may carry ${num(ampacity)} A here (so a fuse of at most ${num(limitA)} A), but it is protected only by ${which}: a short on that wire could burn it before the fuse opens. Give the switch feed its own small fuse or heavier wire.`,
-        source: "cfr-183-455",
-        numbers,
-      },
-    ];
-  }
-  if (fuseA > ampacity) {
-    return [
-      {
-        rule: "fuse-above-ampacity",
-        severity: "warning",
-        message: `${branch.charAt(0).toUpperCase()}${branch.slice(1)} is ${switchFeed.label} (${num(ampacity)} A here), protected by ${which}; the fuse is there to protect the wire, so give the feed a fuse no larger than its wire's ampacity.`,
-        source: "common-practice",
-        numbers,
-      },
-    ];
-  }
-  return [];
+  const Branch = `${branch.charAt(0).toUpperCase()}${branch.slice(1)}`;
+  return fuseProtectsWire(fuseA, switchFeed.ampacityA, {
+    unrated: `The ${switchFeed.label} wire of ${branch} is thinner than 18 AWG, the smallest size in the ampacity table, so nothing here shows that ${which} protects it. Use 1 mm² or heavier.`,
+    exceeds: (ampacity, limitA) =>
+      `${Branch} is ${switchFeed.label}, which may carry ${num(ampacity)} A here (so a fuse of at most ${num(limitA)} A), but it is protected only by ${which}: a short on that wire could burn it before the fuse opens. Give the switch feed its own small fuse or heavier wire.`,
+    above: (ampacity) =>
+      `${Branch} is ${switchFeed.label} (${num(ampacity)} A here), protected by ${which}; the fuse is there to protect the wire, so give the feed a fuse no larger than its wire's ampacity.`,
+    exceedsRule: "switch-feed-exceeds-wire",
+  });
 }
 
 /** Only for an undecided relay: a switch feed of its own already implies one. */
