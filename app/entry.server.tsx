@@ -5,8 +5,12 @@ import type { RenderToPipeableStreamOptions } from "react-dom/server";
 import { renderToPipeableStream } from "react-dom/server";
 import type { EntryContext, RouterContextProvider } from "react-router";
 import { isRouteErrorResponse, ServerRouter } from "react-router";
+import { DocumentFragments } from "./components/document-html";
 import { CspNonce } from "./services/http/csp";
+import { documentKey, keepDocument, keptDocument, NONCE_STAND_IN } from "./services/http/document-cache.server";
+import { documentFragments } from "./services/http/document-fragments.server";
 import { documentNonce } from "./services/http/security-headers.server";
+import { matchesEtag, PUBLIC_CACHE_CONTROL } from "./utils/http.server";
 
 export const streamTimeout = 5_000;
 
@@ -38,6 +42,33 @@ export default function handleRequest(
     return new Response(null, { status: responseStatusCode, headers: responseHeaders });
   }
 
+  // A page that any reader who is not signed in sees alike is rendered once and kept (see
+  // document-cache.server.ts); the browser or a shared cache may keep it too.
+  const fragments = documentFragments(loadContext);
+  const shared = documentKey(request, responseStatusCode, responseHeaders, routerContext, fragments);
+  if (shared) {
+    responseHeaders.set("ETag", shared.etag);
+    // `Vary: Cookie` keeps a page kept for a reader who was not signed in from one who has since
+    // signed in (RFC 9111 §4.1).
+    responseHeaders.set("Cache-Control", PUBLIC_CACHE_CONTROL);
+    responseHeaders.append("Vary", "Cookie");
+    if (matchesEtag(request, shared.etag)) {
+      // The browser keeps the page it has with the policy that came with it: a new nonce would block its scripts.
+      responseHeaders.delete("Content-Security-Policy");
+      return new Response(null, { status: 304, headers: responseHeaders });
+    }
+    responseHeaders.set("Content-Type", "text/html");
+    const kept = keptDocument(shared.key, nonce);
+    if (kept !== undefined)
+      return new Response(new Uint8Array(kept.buffer, kept.byteOffset, kept.length), { status: 200, headers: responseHeaders });
+    return renderWhole(routerContext, request.url, fragments).then(({ html, failed }) => {
+      // A render that failed part-way is answered as the error it is, and not kept.
+      if (failed) responseHeaders.set("Cache-Control", "no-store");
+      else keepDocument(shared.key, html);
+      return new Response(html.replaceAll(NONCE_STAND_IN, nonce), { status: failed ? 500 : 200, headers: responseHeaders });
+    });
+  }
+
   return new Promise<Response>((resolve, reject) => {
     let shellRendered = false;
     const userAgent = request.headers.get("user-agent");
@@ -51,7 +82,9 @@ export default function handleRequest(
 
     const { pipe, abort } = renderToPipeableStream(
       <CspNonce.Provider value={nonce}>
-        <ServerRouter context={routerContext} url={request.url} nonce={nonce} />
+        <DocumentFragments.Provider value={fragments}>
+          <ServerRouter context={routerContext} url={request.url} nonce={nonce} />
+        </DocumentFragments.Provider>
       </CspNonce.Provider>,
       {
         nonce,
@@ -76,6 +109,43 @@ export default function handleRequest(
           responseStatusCode = 500;
           // Errors while the shell renders reject and are logged by React Router; later ones are logged here.
           if (shellRendered) console.error(error);
+        },
+      },
+    );
+  });
+}
+
+/** The whole document as one string, rendered with the nonce stand-in, for keeping. */
+function renderWhole(
+  routerContext: EntryContext,
+  url: string,
+  fragments: ReadonlyMap<string, string> | undefined,
+): Promise<{ html: string; failed: boolean }> {
+  return new Promise((resolve, reject) => {
+    const chunks: Buffer[] = [];
+    let failed = false;
+    const timeoutId = setTimeout(() => abort(), streamTimeout + 1000);
+    const { pipe, abort } = renderToPipeableStream(
+      <CspNonce.Provider value={NONCE_STAND_IN}>
+        <DocumentFragments.Provider value={fragments}>
+          <ServerRouter context={routerContext} url={url} nonce={NONCE_STAND_IN} />
+        </DocumentFragments.Provider>
+      </CspNonce.Provider>,
+      {
+        nonce: NONCE_STAND_IN,
+        onAllReady() {
+          const sink = new PassThrough();
+          sink.on("data", (chunk: Buffer) => chunks.push(chunk));
+          sink.on("end", () => {
+            clearTimeout(timeoutId);
+            resolve({ html: Buffer.concat(chunks).toString("utf8"), failed });
+          });
+          pipe(sink);
+        },
+        onShellError: reject,
+        onError(error: unknown) {
+          failed = true;
+          console.error(error);
         },
       },
     );

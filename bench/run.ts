@@ -28,6 +28,7 @@ import {
   sampleRss,
   startBare,
   startTorqueleaf,
+  TORQUELEAF_BUNDLES,
 } from "./servers";
 import { formatMiB, formatMs, formatRatio, formatTable, option, ratio } from "./stats";
 
@@ -91,7 +92,7 @@ async function demoDatabase() {
 }
 
 async function buildTorqueleaf() {
-  const built = await buildIfStale(ROOT, appInputs, rebuild);
+  const built = await buildIfStale(ROOT, appInputs, rebuild, TORQUELEAF_BUNDLES);
   console.log(built ? "built Torqueleaf (react-router build)" : "Torqueleaf's build is up to date");
 }
 

@@ -52,15 +52,28 @@ function newestMtime(paths: string[]): number {
 }
 
 /**
- * `react-router build` in `cwd` unless its server bundle is newer than every input (or `force`).
- * Returns whether it built.
+ * Builds in `cwd` (`npm run build` where the package has that script, as Torqueleaf does for its
+ * server as well, else `react-router build`) unless every bundle is newer than every input (or
+ * `force`). Returns whether it built.
  */
-export async function buildIfStale(cwd: string, inputs: string[], force: boolean): Promise<boolean> {
-  const bundle = join(cwd, "build", "server", "index.js");
-  if (!force && existsSync(bundle) && statSync(bundle).mtimeMs > newestMtime(inputs)) return false;
-  await run(join(BIN, "react-router"), ["build"], { cwd, env: { ...process.env, NODE_ENV: "production" } });
+export async function buildIfStale(
+  cwd: string,
+  inputs: string[],
+  force: boolean,
+  bundles = ["build/server/index.js"],
+): Promise<boolean> {
+  const newest = newestMtime(inputs);
+  const fresh = bundles.every((bundle) => existsSync(join(cwd, bundle)) && statSync(join(cwd, bundle)).mtimeMs > newest);
+  if (!force && fresh) return false;
+  const scripts = JSON.parse(readFileSync(join(cwd, "package.json"), "utf8")).scripts ?? {};
+  const env = { ...process.env, NODE_ENV: "production" };
+  if (scripts.build) await run("npm", ["run", "build"], { cwd, env });
+  else await run(join(BIN, "react-router"), ["build"], { cwd, env });
   return true;
 }
+
+/** What `npm run build` writes for Torqueleaf: the app's server bundle and the server itself, as plain JavaScript. */
+export const TORQUELEAF_BUNDLES = ["build/server/index.js", "build/cli/start.js"];
 
 export type Server = { name: string; pid: number; origin: string; stop: () => Promise<void>; output: () => string };
 
@@ -155,9 +168,9 @@ export function torqueleafEnv(port: number, databaseFile: string, dataDir: strin
   };
 }
 
-/** Torqueleaf as `npm start` runs it, but as one node process (no tsx wrapper) so its pid is the server's. */
+/** Torqueleaf as `npm start` runs it, but as one node process (no npm wrapper) so its pid is the server's. */
 export function startTorqueleaf(port: number, databaseFile: string, dataDir: string) {
-  return startServer("Torqueleaf", process.execPath, ["--import", "tsx", "app/cli/start.ts", "--local-demo"], {
+  return startServer("Torqueleaf", process.execPath, ["build/cli/start.js", "--local-demo"], {
     cwd: ROOT,
     env: torqueleafEnv(port, databaseFile, dataDir),
     origin: `http://127.0.0.1:${port}`,

@@ -4,12 +4,15 @@ import { createRequestHandler } from "@react-router/express";
 import { stampPeerAddress } from "~/services/auth/client-address.server";
 import { bodyLimit } from "~/services/http/body-limit.server";
 import { refuseUnsupportedMethods } from "~/services/http/request-shape.server";
+import { stampRequestKind } from "~/services/http/request-kind.server";
 import { securityHeadersLayer } from "~/services/http/security-headers.server";
 import { boot } from "./boot";
 
 /**
  * Production-style server: the built app behind Express, after boot (fakes, migrations, demo data).
  * `--local-demo` (`npm start`) runs the stand-ins and the demo data unless the settings say otherwise.
+ * `npm run build` bundles this file to plain JavaScript (build/cli/start.js), which `npm start` runs
+ * with node alone; the tests may also run it through tsx.
  */
 const { settings } = await boot({ localDemo: process.argv.includes("--local-demo") });
 
@@ -21,16 +24,19 @@ app.disable("x-powered-by");
 if (settings.TRUST_PROXY) app.set("trust proxy", 1);
 // Oversized bodies are refused before anything reads them.
 app.use(bodyLimit());
-// The app sees Fetch requests without a socket; this header (always overwritten) gives it the peer's address.
+// The app sees Fetch requests without a socket; these headers (always overwritten) give it the
+// peer's address and whether a document or a navigation's data is asked for.
 app.use((req, _res, next) => {
   stampPeerAddress(req);
+  stampRequestKind(req);
   next();
 });
 app.use(compression());
 app.use("/assets", express.static("build/client/assets", { immutable: true, maxAge: "1y" }));
 app.use(express.static("build/client", { maxAge: "1h" }));
-const buildPath = new URL("../../build/server/index.js", import.meta.url).href;
-app.use(createRequestHandler({ build: () => import(buildPath) }));
+// Imported once: a function here would run the module loader on every request.
+const build = await import(new URL("../../build/server/index.js", import.meta.url).href);
+app.use(createRequestHandler({ build }));
 
 const listening = () =>
   console.log(`Torqueleaf is serving ${settings.APP_ORIGIN} (${settings.HOST || "every interface"}, port ${settings.PORT})`);

@@ -178,6 +178,16 @@ export const variants = sqliteTable(
   (t) => [index("variants_generation").on(t.generationId)],
 );
 
+/**
+ * A counter per kind of content that readers' pages are built from, raised by triggers on every
+ * change to it (migration 0006): "catalogue" (makes, models, generations, variants) and "guides"
+ * (guides, and authors' names). Caches of those pages compare one row instead of the content.
+ */
+export const contentStamps = sqliteTable("content_stamps", {
+  name: text().primaryKey(),
+  stamp: integer().notNull().default(0),
+});
+
 // ── Guides and their revisions ─────────────────────────────────────
 
 /** The guide's own columns mirror its published revision so the Library lists without joins. */

@@ -1,10 +1,12 @@
 import { eq, inArray, type SQL, sql } from "drizzle-orm";
 import { z } from "zod";
 import type { Db } from "~/db/client.server";
-import { fitment, guides } from "~/db/schema";
+import { fitment, guides, users } from "~/db/schema";
 import { evaluateCallout, storedCallout } from "~/engine/callouts";
 import type { Storage } from "~/services/storage.server";
+import { BoundedCache } from "~/utils/bounded-cache";
 import { CATEGORIES, DRIVETRAINS, POWERTRAINS } from "~/utils/vocab";
+import { readContentStamps } from "./content-stamps.server";
 import { type LoadedRevision, loadRevision } from "./guides.server";
 import { publicVariants } from "./media.server";
 
@@ -245,26 +247,21 @@ async function fitmentFor(db: Db, revisionIds: number[]) {
   return rows.map((f) => ({ revisionId: f.revisionId, ...fitmentView(f) }));
 }
 
-/** A published guide as the reader sees it, with every callout evaluated by the engine. */
-export async function getPublishedGuide(db: Db, storage: Pick<Storage, "publicUrl">, slug: string) {
-  const guide = await db.query.guides.findFirst({
-    where: eq(guides.slug, slug),
-    with: { author: { columns: { id: true, name: true, bio: true } } },
-  });
-  if (guide?.state !== "published" || !guide.publishedRevisionId) return null;
-  const loaded = await loadRevision(db, guide.publishedRevisionId);
+/**
+ * What a published revision shows a reader, engine results included. A published revision never
+ * changes, so this is computed once per revision and catalogue stamp (the fitment rows name the
+ * catalogue's vehicles) and kept in a bounded cache; callers must not change what they are given.
+ */
+async function publishedRevisionView(db: Db, storage: Pick<Storage, "publicUrl">, revisionId: number) {
+  const loaded = await loadRevision(db, revisionId);
   if (!loaded) return null;
   const { revision } = loaded;
   return {
-    id: guide.id,
-    slug: guide.slug,
     title: revision.title,
     summary: revision.summary,
     category: revision.category,
     difficulty: revision.difficulty,
     minutes: revision.minutes,
-    author: guide.author,
-    publishedAt: guide.publishedAt,
     revision: { number: revision.number, reviewedAt: revision.reviewedAt, changeSummary: revision.changeSummary },
     steps: loaded.steps.map((s) => ({
       title: s.title,
@@ -292,6 +289,50 @@ export async function getPublishedGuide(db: Db, storage: Pick<Storage, "publicUr
     })),
     tools: loaded.tools.map((t) => ({ name: t.name })),
     fitment: loaded.fitment.map(fitmentView),
+  };
+}
+
+/** About 50 KB each for a long guide: a few MB for the guides readers open most. */
+const REVISION_VIEWS_KEPT = 200;
+const revisionViews = new BoundedCache<string, Awaited<ReturnType<typeof publishedRevisionView>>>(REVISION_VIEWS_KEPT);
+
+/** A published guide as the reader sees it, with every callout evaluated by the engine. */
+export async function getPublishedGuide(db: Db, storage: Pick<Storage, "publicUrl">, slug: string) {
+  const [guide] = await db
+    .select({
+      id: guides.id,
+      slug: guides.slug,
+      state: guides.state,
+      publishedRevisionId: guides.publishedRevisionId,
+      publishedAt: guides.publishedAt,
+      author: { id: users.id, name: users.name, bio: users.bio },
+    })
+    .from(guides)
+    .innerJoin(users, eq(users.id, guides.authorId))
+    .where(eq(guides.slug, slug));
+  if (guide?.state !== "published" || !guide.publishedRevisionId) return null;
+  const key = `${guide.publishedRevisionId}:${(await readContentStamps(db)).catalogue}`;
+  let view = revisionViews.get(key);
+  if (!view) {
+    view = await publishedRevisionView(db, storage, guide.publishedRevisionId);
+    if (view) revisionViews.set(key, view);
+  }
+  if (!view) return null;
+  return {
+    id: guide.id,
+    slug: guide.slug,
+    title: view.title,
+    summary: view.summary,
+    category: view.category,
+    difficulty: view.difficulty,
+    minutes: view.minutes,
+    author: guide.author,
+    publishedAt: guide.publishedAt,
+    revision: view.revision,
+    steps: view.steps,
+    parts: view.parts,
+    tools: view.tools,
+    fitment: view.fitment,
   };
 }
 

@@ -1,9 +1,11 @@
+import type { Route } from "./+types/api.catalogue";
 import { getDb } from "~/db/client.server";
-import { getCatalogue } from "~/models/catalogue.server";
+import { readCatalogue } from "~/models/reader-cache.server";
+import { publicJson } from "~/utils/http.server";
 
-export async function loader() {
-  const makes = await getCatalogue(await getDb());
-  return Response.json({
+export async function loader({ request }: Route.LoaderArgs) {
+  const makes = await readCatalogue(await getDb());
+  return publicJson(request, {
     makes: makes.map((make) => ({
       slug: make.slug,
       name: make.name,

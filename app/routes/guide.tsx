@@ -2,6 +2,7 @@ import { useRef } from "react";
 import { Link } from "react-router";
 import { CalloutView } from "~/components/callouts";
 import { SafetyNotice } from "~/components/chrome";
+import { DocumentHtml } from "~/components/document-html";
 import { GuideKit } from "~/components/guide-kit";
 import {
   PrintFooter,
@@ -13,6 +14,8 @@ import {
 import { PRINT_STYLE } from "~/components/print-style";
 import { getDb } from "~/db/client.server";
 import { getPublishedGuide, type PublishedGuide } from "~/models/library.server";
+import { documentFragmentsContext } from "~/services/http/document-fragments.server";
+import { isDocumentRequest } from "~/services/http/request-kind.server";
 import { getStorage } from "~/services/storage.server";
 import { env } from "~/utils/env.server";
 import { formatDate, formatMinutes, isoDateTime, keepUnitsTogether, keepUnitsTogetherInHtml } from "~/utils/format";
@@ -36,9 +39,20 @@ function shareImage(photo: Photo, origin: string) {
   };
 }
 
-export async function loader({ params, request }: Route.LoaderArgs) {
-  const guide = await getPublishedGuide(await getDb(), getStorage(), params.slug);
-  if (!guide) throw pageErrorResponse(notFound(`A published guide called "${params.slug}"`));
+/** The id of a step's text in the page: where the browser finds it again on hydration. */
+const stepBodyId = (index: number) => `step-${index + 1}-text`;
+
+export async function loader({ params, request, context }: Route.LoaderArgs) {
+  const found = await getPublishedGuide(await getDb(), getStorage(), params.slug);
+  if (!found) throw pageErrorResponse(notFound(`A published guide called "${params.slug}"`));
+  // The steps' HTML goes into the markup once; a document's data leaves it out (DocumentHtml).
+  const bodies = found.steps.map((step) => keepUnitsTogetherInHtml(step.html));
+  const document = isDocumentRequest(request);
+  if (document) context.set(documentFragmentsContext, new Map(bodies.map((html, i) => [stepBodyId(i), html])));
+  const guide = {
+    ...found,
+    steps: found.steps.map(({ html: _html, ...step }, i) => ({ ...step, html: document ? undefined : bodies[i] })),
+  };
   // Addresses for the canonical link, Open Graph and the printed page come from the configured public
   // origin, never from the request's Host header.
   const origin = env().APP_ORIGIN;
@@ -214,10 +228,10 @@ export default function GuidePage({ loaderData }: Route.ComponentProps) {
                     ) : null}
                   </p>
                 ) : null}
-                <div
+                <DocumentHtml
+                  id={stepBodyId(index)}
+                  html={step.html}
                   className="prose prose-lg mt-3 max-w-none font-serif prose-headings:font-serif prose-strong:text-ink"
-                  // biome-ignore lint/security/noDangerouslySetInnerHtml: rendered from validated rich-text JSON when the revision was saved
-                  dangerouslySetInnerHTML={{ __html: keepUnitsTogetherInHtml(step.html) }}
                 />
                 {step.photos.length ? (
                   <div className={`mt-4 grid gap-4 ${step.photos.length > 1 ? "sm:grid-cols-2" : ""}`}>

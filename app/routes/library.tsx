@@ -4,8 +4,9 @@ import { FitmentSummary } from "~/components/fitment";
 import { SafetyNotice } from "~/components/chrome";
 import { formatMinutes } from "~/utils/format";
 import { getDb } from "~/db/client.server";
-import { getCatalogue, yearsLabel } from "~/models/catalogue.server";
-import { type LibraryQuery, listPublishedGuides, parseLibraryQuery, withoutEmptyParams } from "~/models/library.server";
+import { yearsLabel } from "~/models/catalogue.server";
+import { type LibraryQuery, parseLibraryQuery, withoutEmptyParams } from "~/models/library.server";
+import { readCatalogue, readLibrary } from "~/models/reader-cache.server";
 import { CATEGORIES, CATEGORY_LABELS, DIFFICULTY_LABELS, DRIVETRAINS, POWERTRAIN_LABELS, POWERTRAINS } from "~/utils/vocab";
 import { Pager } from "~/components/pager";
 import type { Route } from "./+types/library";
@@ -35,7 +36,7 @@ export async function loader({ request }: Route.LoaderArgs) {
   }
   const query = parseLibraryQuery(params);
   const db = await getDb();
-  const [result, catalogue] = await Promise.all([listPublishedGuides(db, query), getCatalogue(db)]);
+  const [result, catalogue] = await Promise.all([readLibrary(db, query), readCatalogue(db)]);
   const vehicles = catalogue.flatMap((make) =>
     make.models.flatMap((model) => [
       { value: `${make.slug}.${model.slug}`, label: `${make.name} ${model.name} (all years)` },

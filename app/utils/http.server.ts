@@ -1,3 +1,4 @@
+import { createHash } from "node:crypto";
 import { data } from "react-router";
 import type { z } from "zod";
 import { AppError, tooLarge, unsupportedType } from "./errors";
@@ -41,6 +42,33 @@ export function apiHandler<A>(handler: (args: A) => Promise<Response>): (args: A
       throw error;
     }
   };
+}
+
+/**
+ * How long a browser or a shared cache may keep an answer that is the same for every reader (a
+ * published guide, the Library's list, the catalogue), and use it a while longer as it checks again.
+ */
+export const PUBLIC_CACHE_CONTROL = "public, max-age=60, stale-while-revalidate=300";
+
+/** Whether the request's If-None-Match names this ETag (RFC 9110 §13.1.2, weak comparison). */
+export function matchesEtag(request: Request, etag: string): boolean {
+  const header = request.headers.get("if-none-match");
+  if (!header) return false;
+  if (header.trim() === "*") return true;
+  const opaque = (tag: string) => tag.trim().replace(/^W\//, "");
+  return header.split(",").some((tag) => opaque(tag) === opaque(etag));
+}
+
+/**
+ * A JSON answer the same for every reader, with an ETag of its bytes (weak: compression may change
+ * them on the way) and PUBLIC_CACHE_CONTROL; a request that names the ETag gets 304 and no body.
+ */
+export function publicJson(request: Request, body: unknown): Response {
+  const text = JSON.stringify(body);
+  const etag = `W/"${createHash("sha256").update(text).digest("base64url").slice(0, 32)}"`;
+  const headers = { ETag: etag, "Cache-Control": PUBLIC_CACHE_CONTROL };
+  if (matchesEtag(request, etag)) return new Response(null, { status: 304, headers });
+  return new Response(text, { headers: { ...headers, "Content-Type": "application/json" } });
 }
 
 /** An AppError as a thrown page response: the route's ErrorBoundary shows its message in plain words. */

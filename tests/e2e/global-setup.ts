@@ -16,7 +16,7 @@ export async function setup(project: TestProject) {
   await fakes.stop();
   const port = 3900 + Math.floor(Math.random() * 90);
   const origin = `http://localhost:${port}`;
-  server = spawn(process.execPath, ["--import", "tsx", "app/cli/start.ts"], {
+  server = spawn(process.execPath, ["build/cli/start.js"], {
     env: {
       ...process.env,
       NODE_ENV: "production",

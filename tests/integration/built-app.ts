@@ -6,7 +6,8 @@ import { fileURLToPath } from "node:url";
 import { BASE_DB, TMP_DIR } from "../support/base-db";
 
 const ROOT = fileURLToPath(new URL("../..", import.meta.url));
-const SERVER_BUILD = join(ROOT, "build/server/index.js");
+/** What `npm run build` writes: the app's server bundle and the server (app/cli/start.ts) as plain JavaScript. */
+const BUILT = [join(ROOT, "build/server/index.js"), join(ROOT, "build/cli/start.js")];
 
 function newestSource(dir: string): number {
   let newest = 0;
@@ -30,9 +31,10 @@ export async function ensureBuild() {
     }
   }
   try {
-    if (existsSync(SERVER_BUILD) && statSync(SERVER_BUILD).mtimeMs > newestSource(join(ROOT, "app"))) return;
-    const built = spawnSync("npx", ["react-router", "build"], { cwd: ROOT, encoding: "utf8" });
-    if (built.status !== 0) throw new Error(`react-router build failed:\n${built.stdout}\n${built.stderr}`);
+    const newest = newestSource(join(ROOT, "app"));
+    if (BUILT.every((file) => existsSync(file) && statSync(file).mtimeMs > newest)) return;
+    const built = spawnSync("npm", ["run", "build"], { cwd: ROOT, encoding: "utf8" });
+    if (built.status !== 0) throw new Error(`npm run build failed:\n${built.stdout}\n${built.stderr}`);
   } finally {
     rmSync(lock, { recursive: true, force: true });
   }
@@ -52,13 +54,15 @@ export async function freePort(): Promise<number> {
 export type BuiltApp = {
   url: string;
   port: number;
+  /** The app's database file, for a test that changes content behind the app's back. */
+  database: string;
   output: () => string;
   exited: Promise<number | null>;
   stop: () => Promise<void>;
 };
 
 /**
- * Starts `app/cli/start.ts` (the built app behind Express) in its own process with exactly the
+ * Starts `build/cli/start.js` (the built app behind Express, as `npm start` runs it) in its own process with exactly the
  * settings given on top of a clean environment, on a free port, and waits until it answers or exits.
  * `database`: "empty" (a new file) or "demo" (a copy of the migrated demo database).
  */
@@ -71,7 +75,7 @@ export async function startBuiltApp(
   mkdirSync(dir, { recursive: true });
   const database = join(dir, "app.db");
   if (options.database === "demo") copyFileSync(BASE_DB, database);
-  const child: ChildProcess = spawn(process.execPath, ["--import", "tsx", "app/cli/start.ts", ...(options.args ?? [])], {
+  const child: ChildProcess = spawn(process.execPath, ["build/cli/start.js", ...(options.args ?? [])], {
     cwd: ROOT,
     env: {
       PATH: process.env.PATH,
@@ -95,6 +99,7 @@ export async function startBuiltApp(
   const app: BuiltApp = {
     url,
     port,
+    database,
     output: () => output,
     exited,
     stop: async () => {

@@ -149,15 +149,18 @@ describe("the address the server listens on", () => {
 });
 
 describe("npm start", () => {
-  it("runs the built app with React's production build and still starts the local demo", async () => {
+  it("runs the built app as plain JavaScript with React's production build and still starts the local demo", async () => {
     const script = JSON.parse(readFileSync("package.json", "utf8")).scripts.start as string;
-    // "react-router build && NAME=value … tsx app/cli/start.ts --flag": run what follows the build.
+    // "npm run build && NAME=value … node build/cli/start.js --flag": run what follows the build,
+    // with node alone (no TypeScript loader at run time).
     const command = script.split("&&").at(-1)?.trim().split(/\s+/) ?? [];
     const assignments = Object.fromEntries(
       command.filter((w) => /^[A-Z_]+=/.test(w)).map((w) => w.split("=") as [string, string]),
     );
     expect(assignments.NODE_ENV).toBe("production");
-    const args = command.slice(command.indexOf("app/cli/start.ts") + 1);
+    const program = command.findIndex((w) => !/^[A-Z_]+=/.test(w));
+    expect(command.slice(program, program + 2)).toEqual(["node", "build/cli/start.js"]);
+    const args = command.slice(command.indexOf("build/cli/start.js") + 1);
     const app = await start(
       {
         ...assignments,

@@ -1,4 +1,5 @@
 import type { IncomingMessage } from "node:http";
+import { stampRequestKind } from "~/services/http/request-kind.server";
 
 /**
  * The address of the peer that opened the connection. Our servers (app/cli/start.ts and the dev
@@ -24,7 +25,10 @@ export function clientAddress(request: Request, trustProxy: boolean): string {
   return request.headers.get(PEER_ADDRESS_HEADER) ?? "unknown";
 }
 
-/** A Vite plugin that stamps the peer address before React Router's dev handler sees the request. */
+/**
+ * A Vite plugin that stamps the peer address and the request kind (request-kind.server.ts) before
+ * React Router's dev handler sees the request.
+ */
 export function peerAddressPlugin() {
   return {
     name: "torqueleaf-peer-address",
@@ -33,6 +37,7 @@ export function peerAddressPlugin() {
     }) {
       server.middlewares.use((req, _res, next) => {
         stampPeerAddress(req);
+        stampRequestKind(req);
         next();
       });
     },

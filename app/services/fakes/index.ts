@@ -5,13 +5,15 @@ import type { FakeOptions } from "./servers";
 export type { FakeOptions } from "./servers";
 export type LocalFakes = Awaited<ReturnType<typeof startLocalFakes>>;
 
-const CHILD = fileURLToPath(new URL("./child.ts", import.meta.url));
+/** Bundled by `npm run build` (build/cli/child.js beside start.js), or the source run through tsx. */
+const BUNDLED = import.meta.url.endsWith(".js");
+const CHILD = fileURLToPath(new URL(BUNDLED ? "./child.js" : "./child.ts", import.meta.url));
 const portOf = (url: string) => Number(new URL(url).port || 80);
 
 function spawnFakes(options: FakeOptions): Promise<{ child: ChildProcess; settings: Record<string, string> }> {
   return new Promise((resolve, reject) => {
     const child = fork(CHILD, [], {
-      execArgv: ["--import", "tsx"],
+      execArgv: BUNDLED ? [] : ["--import", "tsx"],
       stdio: ["ignore", "inherit", "inherit", "ipc"],
       serialization: "json",
     });

@@ -137,7 +137,9 @@ export const securityHeadersMiddleware: MiddlewareFunction<Response> = async ({ 
     const headers = securityHeaders(env(), nonce);
     // A route that sets its own, narrower policy keeps it (/media's photos are sandboxed), and a
     // document keeps the policy it was rendered with.
-    if (response.headers.has("content-security-policy")) delete headers["Content-Security-Policy"];
+    // A 304 has none: the browser keeps the policy that came with the page it already has, whose
+    // scripts carry that policy's nonce (RFC 9111 §4.3.4 updates only the headers a 304 sends).
+    if (response.headers.has("content-security-policy") || response.status === 304) delete headers["Content-Security-Policy"];
     if (isPage(response) && (isSignedIn(context) || response.headers.has("set-cookie"))) {
       headers["Cache-Control"] = "private, no-store";
     }
@@ -181,6 +183,8 @@ export function securityHeadersLayer(): NodeHandler {
     res.writeHead = function (this: ServerResponse, ...args: unknown[]) {
       if (!this.headersSent) {
         for (const [name, value] of Object.entries(securityHeaders(env(), createNonce()))) {
+          // A 304 keeps the policy of the page the browser already has (see the middleware above).
+          if (name === "Content-Security-Policy" && this.statusCode === 304) continue;
           if (!this.hasHeader(name)) this.setHeader(name, value);
         }
       }

@@ -1,0 +1,42 @@
+import type { Db } from "~/db/client.server";
+import { BoundedCache } from "~/utils/bounded-cache";
+import { type CatalogueTree, getCatalogue } from "./catalogue.server";
+import { readContentStamps } from "./content-stamps.server";
+import { type LibraryQuery, listPublishedGuides } from "./library.server";
+
+/**
+ * What every reader sees alike, computed once per content stamp: the catalogue, and the Library's
+ * answer for each query. A change to the catalogue or to any guide raises a stamp (triggers of
+ * migration 0006), so the next read computes afresh; nothing is served that the database no
+ * longer holds. Callers must not change what they are given.
+ */
+const catalogues = new BoundedCache<number, CatalogueTree>(2);
+
+/** The vehicle catalogue as `getCatalogue` returns it. */
+export async function readCatalogue(db: Db): Promise<CatalogueTree> {
+  const { catalogue: stamp } = await readContentStamps(db);
+  let tree = catalogues.get(stamp);
+  if (!tree) {
+    tree = await getCatalogue(db);
+    catalogues.set(stamp, tree);
+  }
+  return tree;
+}
+
+type LibraryAnswer = Awaited<ReturnType<typeof listPublishedGuides>>;
+
+/** A Library answer holds a page of 12 guides and the facet counts: some 10–20 KB each. */
+const LIBRARY_ANSWERS_KEPT = 500;
+const libraryAnswers = new BoundedCache<string, LibraryAnswer>(LIBRARY_ANSWERS_KEPT);
+
+/** `listPublishedGuides`, answered once per query and content stamp. */
+export async function readLibrary(db: Db, query: LibraryQuery): Promise<LibraryAnswer> {
+  const stamps = await readContentStamps(db);
+  const key = `${stamps.guides}.${stamps.catalogue}:${JSON.stringify(query)}`;
+  let answer = libraryAnswers.get(key);
+  if (!answer) {
+    answer = await listPublishedGuides(db, query);
+    libraryAnswers.set(key, answer);
+  }
+  return answer;
+}

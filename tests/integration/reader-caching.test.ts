@@ -1,0 +1,155 @@
+import { createClient } from "@libsql/client";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { TestClient } from "../support/http-client";
+import { type BuiltApp, ensureBuild, sharedServices, startBuiltApp } from "./built-app";
+
+/**
+ * What readers who are not signed in get from the built app (`npm start`'s server) on a copy of the
+ * demo database: pages and API answers a browser or a shared cache may keep and check again
+ * (RFC 9110 §8.8.3 ETag, §13.1.2 If-None-Match, §15.4.5 304; RFC 9111 §5.2 Cache-Control, RFC 5861
+ * stale-while-revalidate), a fresh CSP nonce on every page (CSP Level 3 §2.3.1) though the page is
+ * rendered once, and every change to the content seen at once, whoever wrote it.
+ */
+const SLUG = "kestrel-hood-auxiliary-lamps";
+const GUIDE = `/guides/${SLUG}`;
+const DEMO_PASSWORD = "torqueleaf-demo";
+
+let app: BuiltApp;
+let client: TestClient;
+
+beforeAll(async () => {
+  await ensureBuild();
+  app = await startBuiltApp(
+    {
+      ...sharedServices(),
+      NODE_ENV: "production",
+      SESSION_SECRET: "reader-caching-secret-0123456789abcdef",
+      LOCAL_FAKES: "0",
+      DEMO_DATA: "0",
+    },
+    { database: "demo", args: ["--local-demo"] },
+  );
+  client = new TestClient(`http://localhost:${app.port}`);
+}, 240_000);
+afterAll(() => app?.stop());
+
+/** Writes to the app's database from another connection, as a second process or an admin's tool would. */
+async function writeBehindTheApp(statement: string, args: (string | number)[] = []) {
+  const db = createClient({ url: `file:${app.database}` });
+  try {
+    await db.execute({ sql: statement, args });
+  } finally {
+    db.close();
+  }
+}
+
+const nonceOf = (response: Response) => /'nonce-([^']+)'/.exec(response.headers.get("content-security-policy") ?? "")?.[1];
+
+describe("a page for a reader who is not signed in", () => {
+  it("may be kept (public, with an ETag and Vary: Cookie) and is answered 304 when the ETag is named", async () => {
+    const first = await client.get(GUIDE);
+    expect(first.status).toBe(200);
+    const etag = first.headers.get("etag") ?? "";
+    expect(etag).toMatch(/^W\/"[\w-]+"$/);
+    expect(first.headers.get("cache-control")).toMatch(/\bpublic\b.*\bmax-age=\d+.*\bstale-while-revalidate=\d+/);
+    expect(first.headers.get("vary") ?? "").toMatch(/\bCookie\b/i);
+
+    const again = await client.get(GUIDE, { headers: { "if-none-match": etag } });
+    expect(again.status).toBe(304);
+    expect(await again.text()).toBe("");
+    expect(again.headers.get("etag")).toBe(etag);
+    // The browser keeps the page it has with that page's policy; a new nonce would block its scripts.
+    expect(again.headers.get("content-security-policy")).toBeNull();
+
+    const other = await client.get(GUIDE, { headers: { "if-none-match": 'W/"something-else"' } });
+    expect(other.status).toBe(200);
+  });
+
+  it("carries a fresh nonce on every answer, in its policy and on its scripts, though rendered once", async () => {
+    const [a, b] = [await client.get(GUIDE), await client.get(GUIDE)];
+    const [htmlA, htmlB] = [await a.text(), await b.text()];
+    const [nonceA, nonceB] = [nonceOf(a), nonceOf(b)];
+    expect(nonceA && nonceB && nonceA !== nonceB).toBe(true);
+    expect(htmlA).toContain(`nonce="${nonceA}"`);
+    expect(htmlA).not.toContain(`nonce="${nonceB}"`);
+    expect(htmlB).toContain(`nonce="${nonceB}"`);
+    // Every script carries the answer's own nonce, none the one kept with the markup.
+    const scripts = [...htmlB.matchAll(/<script\b[^>]*>/g)].map(([tag]) => tag);
+    expect(scripts.length).toBeGreaterThan(0);
+    for (const tag of scripts) expect(tag.includes(`nonce="${nonceB}"`) || / src="/.test(tag)).toBe(true);
+    expect(a.headers.get("etag")).toBe(b.headers.get("etag"));
+  });
+
+  it("carries each step's text once: in the markup, not again in the data for hydration", async () => {
+    const api = (await (await client.get(`/api/guides/${SLUG}`)).json()) as { steps: { html: string }[] };
+    const text = api.steps.map((s) => s.html.replace(/<[^>]+>/g, " ")).join(" ");
+    const phrase = /[A-Za-z][A-Za-z ]{30,}/.exec(text)?.[0].trim().slice(0, 30) ?? "";
+    expect(phrase.length).toBe(30);
+    const html = await (await client.get(GUIDE)).text();
+    expect(html.split(phrase).length - 1).toBe(1);
+    // A navigation in the browser gets the text in the data, since it has no markup yet.
+    const data = await (await client.get(`${GUIDE}.data`)).text();
+    expect(data).toContain(phrase);
+  });
+});
+
+describe("a page for a signed-in member", () => {
+  it("is private and never stored, and carries no ETag", async () => {
+    const member = new TestClient(`http://localhost:${app.port}`);
+    expect((await member.signIn("reader@torqueleaf.test", DEMO_PASSWORD)).status).toBe(302);
+    const page = await member.get(GUIDE);
+    expect(page.status).toBe(200);
+    expect(page.headers.get("cache-control")).toBe("private, no-store");
+    expect(page.headers.get("etag")).toBeNull();
+  });
+});
+
+describe("answers of the public API", () => {
+  it.each([["/api/guides"], [`/api/guides/${SLUG}`], ["/api/catalogue"]])(
+    "%s may be kept and is answered 304 for its ETag",
+    async (path) => {
+      const first = await client.get(path);
+      expect(first.status).toBe(200);
+      const etag = first.headers.get("etag") ?? "";
+      expect(etag).toMatch(/^W\/"[\w-]+"$/);
+      expect(first.headers.get("cache-control")).toMatch(/\bpublic\b/);
+      const again = await client.get(path, { headers: { "if-none-match": etag } });
+      expect(again.status).toBe(304);
+      expect(await again.text()).toBe("");
+    },
+  );
+});
+
+describe("a change to the content", () => {
+  it("shows at once on the guide page and in the API: an author's new name, a vehicle renamed in the catalogue", async () => {
+    const before = await client.get(GUIDE);
+    const etag = before.headers.get("etag");
+    await before.text();
+    await writeBehindTheApp(
+      "UPDATE users SET name = 'Renamed Author Ostrava' WHERE id = (SELECT author_id FROM guides WHERE slug = ?)",
+      [SLUG],
+    );
+    const renamed = await client.get(GUIDE);
+    expect(await renamed.text()).toContain("Renamed Author Ostrava");
+    expect(renamed.headers.get("etag")).not.toBe(etag);
+
+    await writeBehindTheApp(
+      `UPDATE variants SET name = name || ' Renamedtrim' WHERE id = (
+         SELECT f.variant_id FROM fitment f JOIN guides g ON g.published_revision_id = f.revision_id
+         WHERE g.slug = ? ORDER BY f.variant_id LIMIT 1)`,
+      [SLUG],
+    );
+    expect(await (await client.get(GUIDE)).text()).toContain("Renamedtrim");
+    expect(JSON.stringify(await (await client.get(`/api/guides/${SLUG}`)).json())).toContain("Renamedtrim");
+    expect(JSON.stringify(await (await client.get("/api/catalogue")).json())).toContain("Renamedtrim");
+  });
+
+  it("shows at once in the Library", async () => {
+    const listed = async () =>
+      ((await (await client.get("/api/guides?q=lamps")).json()) as { guides: { title: string }[] }).guides;
+    expect((await listed()).some((g) => g.title.includes("Newly titled"))).toBe(false);
+    await writeBehindTheApp("UPDATE guides SET title = 'Newly titled hood lamps' WHERE slug = ?", [SLUG]);
+    expect((await listed()).some((g) => g.title === "Newly titled hood lamps")).toBe(true);
+    expect(await (await client.get("/")).text()).toContain("Newly titled hood lamps");
+  });
+});
