@@ -22,6 +22,7 @@ import { formatDate, formatMinutes, isoDateTime, keepUnitsTogether, keepUnitsTog
 import { CATEGORY_LABELS, DIFFICULTY_LABELS, type Category } from "~/utils/vocab";
 import { notFound } from "~/utils/errors";
 import { pageErrorResponse } from "~/utils/http.server";
+import { READER_PAGE } from "~/utils/reader-page";
 import type { Route } from "./+types/guide";
 
 type Photo = PublishedGuide["steps"][number]["photos"][number];
@@ -61,6 +62,9 @@ export async function loader({ params, request, context }: Route.LoaderArgs) {
   const image = photo ? shareImage(photo, origin) : null;
   return { guide, url, image, print: new URL(request.url).searchParams.get("print") === "1" };
 }
+
+/** The same for every reader who is not signed in: rendered once, and a browser may keep it. */
+export const handle = READER_PAGE;
 
 export const meta: Route.MetaFunction = ({ data }) => {
   if (!data) return [{ title: "Guide not found · Torqueleaf" }];

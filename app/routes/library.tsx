@@ -9,7 +9,11 @@ import { type LibraryQuery, parseLibraryQuery, withoutEmptyParams } from "~/mode
 import { readCatalogue, readLibrary } from "~/models/reader-cache.server";
 import { CATEGORIES, CATEGORY_LABELS, DIFFICULTY_LABELS, DRIVETRAINS, POWERTRAIN_LABELS, POWERTRAINS } from "~/utils/vocab";
 import { Pager } from "~/components/pager";
+import { READER_PAGE } from "~/utils/reader-page";
 import type { Route } from "./+types/library";
+
+/** The same for every reader who is not signed in: rendered once, and a browser may keep it. */
+export const handle = READER_PAGE;
 
 export const meta: Route.MetaFunction = () => [
   { title: "Torqueleaf · Reviewed install guides for vehicle accessories" },

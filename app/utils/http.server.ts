@@ -46,9 +46,10 @@ export function apiHandler<A>(handler: (args: A) => Promise<Response>): (args: A
 
 /**
  * How long a browser or a shared cache may keep an answer that is the same for every reader (a
- * published guide, the Library's list, the catalogue), and use it a while longer as it checks again.
+ * published guide, the Library's list, the catalogue), and use it a while longer as it checks again
+ * (RFC 5861). Short: a guide withdrawn or corrected for its safety content must not linger.
  */
-export const PUBLIC_CACHE_CONTROL = "public, max-age=60, stale-while-revalidate=300";
+export const PUBLIC_CACHE_CONTROL = "public, max-age=30, stale-while-revalidate=60";
 
 /** Whether the request's If-None-Match names this ETag (RFC 9110 §13.1.2, weak comparison). */
 export function matchesEtag(request: Request, etag: string): boolean {

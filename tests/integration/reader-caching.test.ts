@@ -93,6 +93,15 @@ describe("a page for a reader who is not signed in", () => {
   });
 });
 
+describe("a page that is not a reader page", () => {
+  it.each([["/login"], ["/signup"], ["/reset"]])("%s carries no ETag and is not public", async (path) => {
+    const page = await client.get(path);
+    expect(page.status).toBe(200);
+    expect(page.headers.get("etag")).toBeNull();
+    expect(page.headers.get("cache-control") ?? "").not.toMatch(/\bpublic\b/);
+  });
+});
+
 describe("a page for a signed-in member", () => {
   it("is private and never stored, and carries no ETag", async () => {
     const member = new TestClient(`http://localhost:${app.port}`);

@@ -29,10 +29,18 @@ function hasPromise(value: unknown): boolean {
   return false;
 }
 
+/** Whether the page's route is marked READER_PAGE (app/utils/reader-page.ts). */
+const isReaderPage = (context: EntryContext) => {
+  const matches = context.staticHandlerContext.matches;
+  const leaf = matches.at(-1)?.route.id;
+  const handle = leaf ? (context.routeModules[leaf]?.handle as { readerPage?: boolean } | undefined) : undefined;
+  return handle?.readerPage === true;
+};
+
 /**
- * The key of a document that may be kept and shared, or null: only a plain successful GET for a
- * reader who is not signed in, without a message for them, a cookie to set, an action's result or
- * streamed (deferred) data.
+ * The key of a document that may be kept and shared, or null: only a reader page (READER_PAGE), a
+ * plain successful GET for a reader who is not signed in, without a message for them, a cookie to
+ * set, an action's result or streamed (deferred) data.
  */
 export function documentKey(
   request: Request,
@@ -42,7 +50,7 @@ export function documentKey(
   fragments?: ReadonlyMap<string, string>,
 ): { key: string; etag: string } | null {
   const state = context.staticHandlerContext;
-  if (request.method !== "GET" || status !== 200 || context.isSpaMode) return null;
+  if (request.method !== "GET" || status !== 200 || context.isSpaMode || !isReaderPage(context)) return null;
   if (headers.has("set-cookie") || state.actionData || state.errors) return null;
   const root = state.loaderData.root as RootShape;
   if (!root || root.user || root.flash) return null;
