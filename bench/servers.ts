@@ -168,9 +168,17 @@ export function torqueleafEnv(port: number, databaseFile: string, dataDir: strin
   };
 }
 
+/** The node options `npm start` gives the server ("… node --flag build/cli/start.js …"). */
+function startScriptNodeOptions(): string[] {
+  const script: string = JSON.parse(readFileSync(join(ROOT, "package.json"), "utf8")).scripts.start;
+  const words = script.split("&&").at(-1)?.trim().split(/\s+/) ?? [];
+  return words.slice(words.indexOf("node") + 1, words.indexOf("build/cli/start.js")).filter((w) => w.startsWith("--"));
+}
+
 /** Torqueleaf as `npm start` runs it, but as one node process (no npm wrapper) so its pid is the server's. */
 export function startTorqueleaf(port: number, databaseFile: string, dataDir: string) {
-  return startServer("Torqueleaf", process.execPath, ["build/cli/start.js", "--local-demo"], {
+  const args = [...startScriptNodeOptions(), "build/cli/start.js", "--local-demo"];
+  return startServer("Torqueleaf", process.execPath, args, {
     cwd: ROOT,
     env: torqueleafEnv(port, databaseFile, dataDir),
     origin: `http://127.0.0.1:${port}`,

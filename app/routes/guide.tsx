@@ -17,6 +17,7 @@ import { getPublishedGuide, type PublishedGuide } from "~/models/library.server"
 import { documentFragmentsContext } from "~/services/http/document-fragments.server";
 import { isDocumentRequest } from "~/services/http/request-kind.server";
 import { getStorage } from "~/services/storage.server";
+import { BoundedCache } from "~/utils/bounded-cache";
 import { env } from "~/utils/env.server";
 import { formatDate, formatMinutes, isoDateTime, keepUnitsTogether, keepUnitsTogetherInHtml } from "~/utils/format";
 import { CATEGORY_LABELS, DIFFICULTY_LABELS, type Category } from "~/utils/vocab";
@@ -40,6 +41,17 @@ function shareImage(photo: Photo, origin: string) {
   };
 }
 
+/** Step HTML as shown, kept by the stored HTML (it never changes for a published revision). */
+const shownHtml = new BoundedCache<string, string>(4 * 1024 * 1024, (html) => html.length);
+function stepHtmlShown(html: string) {
+  let shown = shownHtml.get(html);
+  if (shown === undefined) {
+    shown = keepUnitsTogetherInHtml(html);
+    shownHtml.set(html, shown);
+  }
+  return shown;
+}
+
 /** The id of a step's text in the page: where the browser finds it again on hydration. */
 const stepBodyId = (index: number) => `step-${index + 1}-text`;
 
@@ -47,7 +59,7 @@ export async function loader({ params, request, context }: Route.LoaderArgs) {
   const found = await getPublishedGuide(await getDb(), getStorage(), params.slug);
   if (!found) throw pageErrorResponse(notFound(`A published guide called "${params.slug}"`));
   // The steps' HTML goes into the markup once; a document's data leaves it out (DocumentHtml).
-  const bodies = found.steps.map((step) => keepUnitsTogetherInHtml(step.html));
+  const bodies = found.steps.map((step) => stepHtmlShown(step.html));
   const document = isDocumentRequest(request);
   if (document) context.set(documentFragmentsContext, new Map(bodies.map((html, i) => [stepBodyId(i), html])));
   const guide = {

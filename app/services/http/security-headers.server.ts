@@ -62,6 +62,20 @@ const STYLE_HASHES = [DIAGRAM_STYLE, PRINT_STYLE].map((css) => `'sha256-${create
  * route accepts a form post and answers with a redirect to GitHub, which `form-action` must allow.
  */
 export function contentSecurityPolicy(settings: Settings, nonce: string): string {
+  return policyTemplate(settings).split(NONCE_SLOT).join(nonce);
+}
+
+/** Where the nonce goes in a policy built once per settings (no nonce can contain a space or quote). */
+const NONCE_SLOT = "\u0000nonce\u0000";
+let templateFor: { key: string; template: string } | undefined;
+
+function policyTemplate(settings: Settings): string {
+  const key = `${settings.S3_PUBLIC_URL}\n${settings.GITHUB_BASE_URL}`;
+  if (templateFor?.key !== key) templateFor = { key, template: buildPolicy(settings, NONCE_SLOT) };
+  return templateFor.template;
+}
+
+function buildPolicy(settings: Settings, nonce: string): string {
   const images = ["'self'", "data:", originOf(settings.S3_PUBLIC_URL)];
   const forms = ["'self'", originOf(settings.GITHUB_BASE_URL || "https://github.com")];
   const directives: Record<string, (string | null)[]> = {
@@ -84,8 +98,15 @@ export function contentSecurityPolicy(settings: Settings, nonce: string): string
 
 /** The headers every answer carries, pages, data, the API, photos and static files alike. */
 export function securityHeaders(settings: Settings, nonce: string): Record<string, string> {
-  return {
-    "Content-Security-Policy": contentSecurityPolicy(settings, nonce),
+  return { "Content-Security-Policy": contentSecurityPolicy(settings, nonce), ...fixedHeaders(settings) };
+}
+
+let fixedFor: { origin: string; headers: Record<string, string> } | undefined;
+
+/** The headers without a nonce, built once per origin. */
+function fixedHeaders(settings: Settings): Record<string, string> {
+  if (fixedFor?.origin === settings.APP_ORIGIN) return fixedFor.headers;
+  const headers = {
     "X-Content-Type-Options": "nosniff",
     "Referrer-Policy": "strict-origin-when-cross-origin",
     "Permissions-Policy": PERMISSIONS_POLICY,
@@ -97,6 +118,8 @@ export function securityHeaders(settings: Settings, nonce: string): Record<strin
       ? { "Strict-Transport-Security": "max-age=31536000; includeSubDomains" }
       : {}),
   };
+  fixedFor = { origin: settings.APP_ORIGIN, headers };
+  return headers;
 }
 
 /** A document, its `.data`, or a redirect (which `.data` turns into a 202 only after the middleware). */
@@ -182,10 +205,13 @@ export function securityHeadersLayer(): NodeHandler {
     const writeHead = res.writeHead as (...args: unknown[]) => ServerResponse;
     res.writeHead = function (this: ServerResponse, ...args: unknown[]) {
       if (!this.headersSent) {
-        for (const [name, value] of Object.entries(securityHeaders(env(), createNonce()))) {
-          // A 304 keeps the policy of the page the browser already has (see the middleware above).
-          if (name === "Content-Security-Policy" && this.statusCode === 304) continue;
+        const settings = env();
+        for (const [name, value] of Object.entries(fixedHeaders(settings))) {
           if (!this.hasHeader(name)) this.setHeader(name, value);
+        }
+        // A 304 keeps the policy of the page the browser already has (see the middleware above).
+        if (!this.hasHeader("Content-Security-Policy") && this.statusCode !== 304) {
+          this.setHeader("Content-Security-Policy", contentSecurityPolicy(settings, createNonce()));
         }
       }
       return writeHead.apply(this, args);
