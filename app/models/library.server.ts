@@ -104,16 +104,16 @@ function conditions(query: LibraryQuery, without?: Dimension, vehicleInline = fa
 }
 
 /**
- * bm25 weights per guide_search column: revision_id (not searched), title, summary, steps_text,
- * parts_text, tools_text, callouts_text. A word in the title says most about a guide; a part or a
- * tool named in its lists says more than a word somewhere in the steps.
+ * bm25 weights per guide_search column: title, summary, steps_text, parts_text, tools_text,
+ * callouts_text (the row's rowid is its revision's id). A word in the title says most about a
+ * guide; a part or a tool named in its lists says more than a word somewhere in the steps.
  */
-const SEARCH_WEIGHTS = "0, 10, 4, 1, 3, 2, 1";
+const SEARCH_WEIGHTS = "10, 4, 1, 3, 2, 1";
 
 function searchJoin(query: LibraryQuery): SQL {
   const match = query.q ? ftsQuery(query.q) : null;
   if (!match) return sql``;
-  return sql`JOIN (SELECT revision_id, bm25(guide_search, ${sql.raw(SEARCH_WEIGHTS)}) AS rank FROM guide_search WHERE guide_search MATCH ${match}) s
+  return sql`JOIN (SELECT rowid AS revision_id, bm25(guide_search, ${sql.raw(SEARCH_WEIGHTS)}) AS rank FROM guide_search WHERE guide_search MATCH ${match}) s
     ON s.revision_id = g.published_revision_id`;
 }
 
