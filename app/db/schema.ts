@@ -201,7 +201,12 @@ export const guides = sqliteTable(
     createdAt: createdAt(),
     updatedAt: updatedAt(),
   },
-  (t) => [index("guides_state").on(t.state), index("guides_author").on(t.authorId)],
+  (t) => [
+    // The Library lists published guides newest first, and finds a guide by its published revision.
+    index("guides_state_published").on(t.state, t.publishedAt),
+    index("guides_published_revision").on(t.publishedRevisionId),
+    index("guides_author").on(t.authorId),
+  ],
 );
 
 export const revisions = sqliteTable(
@@ -319,7 +324,12 @@ export const fitment = sqliteTable(
     status: text({ enum: FITMENT_STATUSES }).notNull(),
     note: text(),
   },
-  (t) => [uniqueIndex("fitment_revision_variant").on(t.revisionId, t.variantId), index("fitment_variant").on(t.variantId)],
+  (t) => [
+    uniqueIndex("fitment_revision_variant").on(t.revisionId, t.variantId),
+    // The Library's filters and facets read fitment from both sides, each from its index alone.
+    index("fitment_revision_status_variant").on(t.revisionId, t.status, t.variantId),
+    index("fitment_variant_status_revision").on(t.variantId, t.status, t.revisionId),
+  ],
 );
 
 export const parts = sqliteTable(
