@@ -149,16 +149,42 @@ async function guideFacet(db: Db, query: LibraryQuery, dimension: "category" | "
   return Object.fromEntries(rows.map((r) => [String(r.value), Number(r.n)]));
 }
 
-/** Counts per powertrain or drivetrain among guides that match every other filter, on one fitting variant. */
-async function variantFacet(db: Db, query: LibraryQuery, dimension: "powertrain" | "drivetrain") {
-  const rows = await db.all<{ value: string; n: number }>(sql`
-    SELECT v.${sql.raw(dimension)} AS value, count(DISTINCT g.id) AS n
-    FROM ${guideSource(query)}
-    JOIN fitment f ON f.revision_id = g.published_revision_id AND f.status <> 'does-not-fit'
-    ${variantJoins(query)}
-    WHERE ${all([...guideConditions(query), ...vehicleConditions(query, dimension)])}
-    GROUP BY value`);
-  return Object.fromEntries(rows.map((r) => [r.value, Number(r.n)]));
+/**
+ * Counts per powertrain and per drivetrain among guides that match every other filter on one
+ * fitting variant, in one pass: per guide (grouped in the order the guides are read, so without a
+ * sort), whether some fitting variant of each powertrain meets the vehicle filters but the
+ * powertrain one, and likewise per drivetrain; then those flags summed.
+ */
+async function variantFacets(db: Db, query: LibraryQuery) {
+  const flags = (dimension: "powertrain" | "drivetrain", values: readonly string[], prefix: string) =>
+    values.map(
+      (value, i) =>
+        sql`max(v.${sql.raw(dimension)} = ${value} AND ${all(vehicleConditions(query, dimension))}) AS ${sql.raw(`${prefix}${i}`)}`,
+    );
+  const columns = [...POWERTRAINS.map((_, i) => `po${i}`), ...DRIVETRAINS.map((_, i) => `dr${i}`)];
+  // Filters both facets keep (vehicle and year) narrow the rows read; the rest are in the flags.
+  const shared = vehicleConditions({ ...query, powertrain: undefined, drivetrain: undefined });
+  const [row] = await db.all<Record<string, number | null>>(sql`
+    SELECT ${sql.join(
+      columns.map((name) => sql`sum(${sql.raw(name)}) AS ${sql.raw(name)}`),
+      sql`, `,
+    )} FROM (
+      SELECT ${sql.join([...flags("powertrain", POWERTRAINS, "po"), ...flags("drivetrain", DRIVETRAINS, "dr")], sql`, `)}
+      FROM ${guideSource(query)}
+      JOIN fitment f ON f.revision_id = g.published_revision_id AND f.status <> 'does-not-fit'
+      ${variantJoins(query)}
+      WHERE ${all([...guideConditions(query), ...shared])}
+      GROUP BY g.id
+    )`);
+  // Values no guide has are left out, and the rest come in the order a GROUP BY on the value gives.
+  const facet = (values: readonly string[], prefix: string) =>
+    Object.fromEntries(
+      values
+        .map((value, i) => [value, Number(row?.[`${prefix}${i}`] ?? 0)] as const)
+        .filter(([, n]) => n > 0)
+        .sort(([a], [b]) => (a < b ? -1 : a > b ? 1 : 0)),
+    );
+  return { powertrain: facet(POWERTRAINS, "po"), drivetrain: facet(DRIVETRAINS, "dr") };
 }
 
 /**
@@ -204,7 +230,7 @@ export async function listPublishedGuides(db: Db, asked: LibraryQuery) {
   const listWhere = conditions(query, undefined, true);
   const order = query.q && ftsQuery(query.q) ? sql`s.rank, g.published_at DESC` : sql`g.published_at DESC, g.id DESC`;
   const offset = (query.page - 1) * PAGE_SIZE;
-  const [rows, totalRows, powertrain, drivetrain, category, difficulty, vehicle] = await Promise.all([
+  const [rows, totalRows, { powertrain, drivetrain }, category, difficulty, vehicle] = await Promise.all([
     db.all<{
       id: number;
       slug: string;
@@ -220,8 +246,7 @@ export async function listPublishedGuides(db: Db, asked: LibraryQuery) {
       FROM ${guideSource(query)} JOIN users u ON u.id = g.author_id
       WHERE ${listWhere} ORDER BY ${order} LIMIT ${PAGE_SIZE} OFFSET ${offset}`),
     db.all<{ n: number }>(sql`SELECT count(*) AS n FROM ${guideSource(query)} WHERE ${where}`),
-    variantFacet(db, query, "powertrain"),
-    variantFacet(db, query, "drivetrain"),
+    variantFacets(db, query),
     guideFacet(db, query, "category"),
     guideFacet(db, query, "difficulty"),
     vehicleFacet(db, query),
