@@ -3,7 +3,9 @@
  * database for the scale benchmark. Everything goes through the app's model functions, exactly as
  * an author and an editor would: the catalogue through `upsertCatalogue`, each guide through
  * `createGuide`, `saveDraft` (one batch per guide: steps rendered to HTML, fitment, parts, tools),
- * `submitRevision` and `approveRevision`. Names are invented: a generated catalogue of makes, models,
+ * `submitRevision` and `approveRevision`, and the search index is filled by the migrations' own
+ * triggers as each row is written (each finds its index row by rowid, so about 25 ms a guide, some
+ * nine minutes for 20,000 on two cores). Names are invented: a generated catalogue of makes, models,
  * generations and variants, and guide text assembled from a small vocabulary.
  *
  * The work database lives on tmpfs (/dev/shm) while it is written, where a commit's fsync costs
@@ -253,26 +255,6 @@ function guideInput(i: number, variants: VariantRow[], byGeneration: Map<number,
 
 // ── Writing ───────────────────────────────────────────────────────
 
-/**
- * The search index's triggers as the migrations create them find their row by `revision_id`, an
- * UNINDEXED column of the FTS5 table, so every step saved scans the whole index: writing 20,000
- * guides through them takes hours. While they have that form they are set aside during the run
- * and the index is rebuilt at the end with the very expression they use; with any other form
- * (or none) the triggers stay and do the work themselves. Returns the statements that restore them.
- */
-async function setSearchTriggersAside(): Promise<string[]> {
-  const triggers = await db.all<{ name: string; sql: string }>(
-    sql`SELECT name, sql FROM sqlite_master WHERE type = 'trigger' AND sql LIKE '%guide_search%' ORDER BY name`,
-  );
-  const table = await db.get<{ sql: string }>(sql`SELECT sql FROM sqlite_master WHERE name = 'guide_search'`);
-  const known =
-    /revision_id UNINDEXED/.test(table?.sql ?? "") &&
-    triggers.some((t) => /UPDATE guide_search SET steps_text[\s\S]*WHERE revision_id = new\.revision_id/.test(t.sql));
-  if (!known) return [];
-  for (const trigger of triggers) await db.run(sql.raw(`DROP TRIGGER ${trigger.name}`));
-  console.log(`set aside ${triggers.length} search-index triggers (they scan the whole index per step); rebuilt at the end`);
-  return triggers.map((t) => t.sql);
-}
 const PROGRESS_EVERY = Math.max(100, Math.min(1000, Math.round(guideCount / 20)));
 const started = Date.now();
 const workDir = mkdtempSync(join(existsSync("/dev/shm") ? "/dev/shm" : tmpdir(), "torqueleaf-bench-data-"));
@@ -307,7 +289,6 @@ try {
     );
   }
   await upsertCatalogue(db, catalogue());
-  const searchTriggers = await setSearchTriggersAside();
   const variants = await db.all<VariantRow>(sql`SELECT id, generation_id AS generationId FROM variants ORDER BY id`);
   const byGeneration = new Map<number, VariantRow[]>();
   for (const v of variants) byGeneration.set(v.generationId, [...(byGeneration.get(v.generationId) ?? []), v]);
@@ -339,17 +320,6 @@ try {
         `  ${i + 1} guides, ${((now - started) / 1000).toFixed(0)} s${i + 1 < guideCount ? `, ~${eta.toFixed(0)} s to go` : ""}`,
       );
     }
-  }
-
-  if (searchTriggers.length) {
-    // Same content as the triggers give: each revision's title, summary and its steps' text.
-    await db.run(sql`DELETE FROM guide_search`);
-    await db.run(sql`INSERT INTO guide_search (revision_id, title, summary, steps_text)
-      SELECT r.id, r.title, r.summary, coalesce((
-        SELECT group_concat(title || ' ' || body_text, ' ') FROM steps WHERE revision_id = r.id
-      ), '') FROM revisions r ORDER BY r.id`);
-    for (const trigger of searchTriggers) await db.run(sql.raw(trigger));
-    console.log(`rebuilt the search index and restored its ${searchTriggers.length} triggers`);
   }
 
   const counts = await db.get<Record<string, number>>(sql`SELECT

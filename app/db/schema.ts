@@ -180,7 +180,7 @@ export const variants = sqliteTable(
 
 /**
  * A counter per kind of content that readers' pages are built from, raised by triggers on every
- * change to it (migration 0006): "catalogue" (makes, models, generations, variants) and "guides"
+ * change to it (migration 0008): "catalogue" (makes, models, generations, variants) and "guides"
  * (guides, and authors' names). Caches of those pages compare one row instead of the content.
  */
 export const contentStamps = sqliteTable("content_stamps", {
@@ -211,7 +211,12 @@ export const guides = sqliteTable(
     createdAt: createdAt(),
     updatedAt: updatedAt(),
   },
-  (t) => [index("guides_state").on(t.state), index("guides_author").on(t.authorId)],
+  (t) => [
+    // The Library lists published guides newest first, and finds a guide by its published revision.
+    index("guides_state_published").on(t.state, t.publishedAt),
+    index("guides_published_revision").on(t.publishedRevisionId),
+    index("guides_author").on(t.authorId),
+  ],
 );
 
 export const revisions = sqliteTable(
@@ -329,7 +334,12 @@ export const fitment = sqliteTable(
     status: text({ enum: FITMENT_STATUSES }).notNull(),
     note: text(),
   },
-  (t) => [uniqueIndex("fitment_revision_variant").on(t.revisionId, t.variantId), index("fitment_variant").on(t.variantId)],
+  (t) => [
+    uniqueIndex("fitment_revision_variant").on(t.revisionId, t.variantId),
+    // The Library's filters and facets read fitment from both sides, each from its index alone.
+    index("fitment_revision_status_variant").on(t.revisionId, t.status, t.variantId),
+    index("fitment_variant_status_revision").on(t.variantId, t.status, t.revisionId),
+  ],
 );
 
 export const parts = sqliteTable(

@@ -1,7 +1,7 @@
 import type { Db } from "~/db/client.server";
 import { contentStamps } from "~/db/schema";
 
-/** The counters that triggers raise on every change to the catalogue and to guides (migration 0006). */
+/** The counters that triggers raise on every change to the catalogue and to guides (migration 0008). */
 export type ContentStamps = { catalogue: number; guides: number };
 
 /** One small read: the stamps now, for keying what was computed from that content. */

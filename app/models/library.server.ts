@@ -86,64 +86,125 @@ function vehicleConditions(query: LibraryQuery, without?: Dimension): SQL[] {
   return vehicle;
 }
 
-const VARIANT_JOINS = sql`JOIN variants v ON v.id = f.variant_id
-  JOIN generations gen ON gen.id = v.generation_id
-  JOIN models mo ON mo.id = gen.model_id
-  JOIN makes mk ON mk.id = mo.make_id`;
+/** The joins from a fitment row (alias f) to its variant and as much of the catalogue as the filters name. */
+function variantJoins(query: LibraryQuery, left = false): SQL {
+  const join = left ? sql.raw("LEFT JOIN") : sql.raw("JOIN");
+  const joins = [sql`${join} variants v ON v.id = f.variant_id`];
+  const make = !!query.make;
+  const model = make || !!query.model;
+  const generation = model || !!query.generation || !!query.year;
+  if (generation) joins.push(sql`${join} generations gen ON gen.id = v.generation_id`);
+  if (model) joins.push(sql`${join} models mo ON mo.id = gen.model_id`);
+  if (make) joins.push(sql`${join} makes mk ON mk.id = mo.make_id`);
+  return sql.join(joins, sql` `);
+}
 
-/** The WHERE clause for published guides matching the query, leaving out one facet's own filter. */
-function conditions(query: LibraryQuery, without?: Dimension, vehicleInline = false): SQL {
-  const vehicle = vehicleConditions(query, without);
-  const parts: SQL[] = [sql`g.state = 'published'`];
-  if (vehicleInline) parts.push(...vehicle);
-  else if (vehicle.length) {
-    parts.push(sql`EXISTS (SELECT 1 FROM fitment f ${VARIANT_JOINS}
-      WHERE f.revision_id = g.published_revision_id AND f.status <> 'does-not-fit' AND ${sql.join(vehicle, sql` AND `)})`);
-  }
+const all = (conditions: SQL[]) => (conditions.length ? sql.join(conditions, sql` AND `) : sql`1`);
+
+/**
+ * Filters on the guide's own columns (alias g): its state, and category and difficulty unless one
+ * is the facet. Nearly every guide is published, so only the list (newest first) reads the state
+ * index; the counts start from the narrower filters (`+` keeps SQLite from choosing that index).
+ */
+function guideConditions(query: LibraryQuery, without?: Dimension, list = false): SQL[] {
+  const parts: SQL[] = [list ? sql`g.state = 'published'` : sql`+g.state = 'published'`];
   if (query.category && without !== "category") parts.push(sql`g.category = ${query.category}`);
   if (query.difficulty && without !== "difficulty") parts.push(sql`g.difficulty = ${query.difficulty}`);
-  return sql.join(parts, sql` AND `);
+  return parts;
 }
 
 /**
- * bm25 weights per guide_search column: revision_id (not searched), title, summary, steps_text,
- * parts_text, tools_text, callouts_text. A word in the title says most about a guide; a part or a
- * tool named in its lists says more than a word somewhere in the steps.
+ * bm25 weights per guide_search column: title, summary, steps_text, parts_text, tools_text,
+ * callouts_text (the row's rowid is its revision's id). A word in the title says most about a
+ * guide; a part or a tool named in its lists says more than a word somewhere in the steps.
  */
-const SEARCH_WEIGHTS = "0, 10, 4, 1, 3, 2, 1";
+const SEARCH_WEIGHTS = "10, 4, 1, 3, 2, 1";
 
-function searchJoin(query: LibraryQuery): SQL {
+/**
+ * The guides a query reads from (alias g): every guide, or with a search the index's matches
+ * first (CROSS JOIN keeps that order), each found by its published revision; alias s has the rank.
+ */
+function guideSource(query: LibraryQuery): SQL {
   const match = query.q ? ftsQuery(query.q) : null;
-  if (!match) return sql``;
-  return sql`JOIN (SELECT revision_id, bm25(guide_search, ${sql.raw(SEARCH_WEIGHTS)}) AS rank FROM guide_search WHERE guide_search MATCH ${match}) s
-    ON s.revision_id = g.published_revision_id`;
+  if (!match) return sql`guides g`;
+  return sql`(SELECT rowid AS revision_id, bm25(guide_search, ${sql.raw(SEARCH_WEIGHTS)}) AS rank FROM guide_search WHERE guide_search MATCH ${match}) s
+    CROSS JOIN guides g ON g.published_revision_id = s.revision_id`;
+}
+
+/** The WHERE clause for published guides matching the query, leaving out one facet's own filter. */
+function conditions(query: LibraryQuery, without?: Dimension, list = false): SQL {
+  const vehicle = vehicleConditions(query, without);
+  const parts = guideConditions(query, without, list);
+  if (vehicle.length) {
+    // Not correlated: SQLite lists the fitting revisions once, then keeps the guides among them.
+    parts.push(sql`g.published_revision_id IN (SELECT f.revision_id FROM fitment f ${variantJoins(query)}
+      WHERE f.status <> 'does-not-fit' AND ${all(vehicle)})`);
+  }
+  return all(parts);
 }
 
 /** Counts per category or difficulty among guides that match every other filter. */
 async function guideFacet(db: Db, query: LibraryQuery, dimension: "category" | "difficulty") {
   const rows = await db.all<{ value: string; n: number }>(sql`
-    SELECT g.${sql.raw(dimension)} AS value, count(*) AS n FROM guides g ${searchJoin(query)}
+    SELECT g.${sql.raw(dimension)} AS value, count(*) AS n FROM ${guideSource(query)}
     WHERE ${conditions(query, dimension)} GROUP BY g.${sql.raw(dimension)}`);
   return Object.fromEntries(rows.map((r) => [String(r.value), Number(r.n)]));
 }
 
-const VEHICLE_FACET_COLUMN = {
-  powertrain: sql`v.powertrain`,
-  drivetrain: sql`v.drivetrain`,
-  // Keyed like the Library's vehicle menu: "make.model.generation".
-  vehicle: sql`mk.slug || '.' || mo.slug || '.' || gen.slug`,
-};
+/**
+ * Counts per powertrain and per drivetrain among guides that match every other filter on one
+ * fitting variant, in one pass: per guide (grouped in the order the guides are read, so without a
+ * sort), whether some fitting variant of each powertrain meets the vehicle filters but the
+ * powertrain one, and likewise per drivetrain; then those flags summed.
+ */
+async function variantFacets(db: Db, query: LibraryQuery) {
+  const flags = (dimension: "powertrain" | "drivetrain", values: readonly string[], prefix: string) =>
+    values.map(
+      (value, i) =>
+        sql`max(v.${sql.raw(dimension)} = ${value} AND ${all(vehicleConditions(query, dimension))}) AS ${sql.raw(`${prefix}${i}`)}`,
+    );
+  const columns = [...POWERTRAINS.map((_, i) => `po${i}`), ...DRIVETRAINS.map((_, i) => `dr${i}`)];
+  // Filters both facets keep (vehicle and year) narrow the rows read; the rest are in the flags.
+  const shared = vehicleConditions({ ...query, powertrain: undefined, drivetrain: undefined });
+  const [row] = await db.all<Record<string, number | null>>(sql`
+    SELECT ${sql.join(
+      columns.map((name) => sql`sum(${sql.raw(name)}) AS ${sql.raw(name)}`),
+      sql`, `,
+    )} FROM (
+      SELECT ${sql.join([...flags("powertrain", POWERTRAINS, "po"), ...flags("drivetrain", DRIVETRAINS, "dr")], sql`, `)}
+      FROM ${guideSource(query)}
+      JOIN fitment f ON f.revision_id = g.published_revision_id AND f.status <> 'does-not-fit'
+      ${variantJoins(query)}
+      WHERE ${all([...guideConditions(query), ...shared])}
+      GROUP BY g.id
+    )`);
+  // Values no guide has are left out, and the rest come in the order a GROUP BY on the value gives.
+  const facet = (values: readonly string[], prefix: string) =>
+    Object.fromEntries(
+      values
+        .map((value, i) => [value, Number(row?.[`${prefix}${i}`] ?? 0)] as const)
+        .filter(([, n]) => n > 0)
+        .sort(([a], [b]) => (a < b ? -1 : a > b ? 1 : 0)),
+    );
+  return { powertrain: facet(POWERTRAINS, "po"), drivetrain: facet(DRIVETRAINS, "dr") };
+}
 
-/** Counts per powertrain, drivetrain or generation among guides that match every other filter. */
-async function vehicleFacet(db: Db, query: LibraryQuery, dimension: keyof typeof VEHICLE_FACET_COLUMN) {
-  const column = VEHICLE_FACET_COLUMN[dimension];
+/**
+ * Counts per generation among guides that match every other filter, keyed like the Library's
+ * vehicle menu ("make.model.generation"): counted per generation id, named once per generation.
+ */
+async function vehicleFacet(db: Db, query: LibraryQuery) {
   const rows = await db.all<{ value: string; n: number }>(sql`
-    SELECT ${column} AS value, count(DISTINCT g.id) AS n
-    FROM guides g ${searchJoin(query)}
-    JOIN fitment f ON f.revision_id = g.published_revision_id AND f.status <> 'does-not-fit'
-    ${VARIANT_JOINS}
-    WHERE ${conditions(query, dimension, true)}
-    GROUP BY value`);
+    SELECT mk.slug || '.' || mo.slug || '.' || gen.slug AS value, c.n AS n FROM (
+      SELECT v.generation_id AS generation_id, count(DISTINCT g.id) AS n
+      FROM ${guideSource(query)}
+      JOIN fitment f ON f.revision_id = g.published_revision_id AND f.status <> 'does-not-fit'
+      ${variantJoins({ ...query, make: undefined, model: undefined, generation: undefined })}
+      WHERE ${all([...guideConditions(query), ...vehicleConditions(query, "vehicle")])}
+      GROUP BY v.generation_id
+    ) c
+    JOIN generations gen ON gen.id = c.generation_id JOIN models mo ON mo.id = gen.model_id JOIN makes mk ON mk.id = mo.make_id
+    ORDER BY value`);
   return Object.fromEntries(rows.map((r) => [r.value, Number(r.n)]));
 }
 
@@ -168,10 +229,10 @@ export async function listPublishedGuides(db: Db, asked: LibraryQuery) {
     }
   }
   const where = conditions(query);
-  const join = searchJoin(query);
+  const listWhere = conditions(query, undefined, true);
   const order = query.q && ftsQuery(query.q) ? sql`s.rank, g.published_at DESC` : sql`g.published_at DESC, g.id DESC`;
   const offset = (query.page - 1) * PAGE_SIZE;
-  const [rows, totalRows, powertrain, drivetrain, category, difficulty, vehicle] = await Promise.all([
+  const [rows, totalRows, { powertrain, drivetrain }, category, difficulty, vehicle] = await Promise.all([
     db.all<{
       id: number;
       slug: string;
@@ -184,20 +245,19 @@ export async function listPublishedGuides(db: Db, asked: LibraryQuery) {
       author: string;
     }>(sql`SELECT g.id, g.slug, g.title, g.summary, g.category, g.difficulty, g.minutes,
         g.published_revision_id AS revisionId, u.name AS author
-      FROM guides g ${join} JOIN users u ON u.id = g.author_id
-      WHERE ${where} ORDER BY ${order} LIMIT ${PAGE_SIZE} OFFSET ${offset}`),
-    db.all<{ n: number }>(sql`SELECT count(*) AS n FROM guides g ${join} WHERE ${where}`),
-    vehicleFacet(db, query, "powertrain"),
-    vehicleFacet(db, query, "drivetrain"),
+      FROM ${guideSource(query)} JOIN users u ON u.id = g.author_id
+      WHERE ${listWhere} ORDER BY ${order} LIMIT ${PAGE_SIZE} OFFSET ${offset}`),
+    db.all<{ n: number }>(sql`SELECT count(*) AS n FROM ${guideSource(query)} WHERE ${where}`),
+    variantFacets(db, query),
     guideFacet(db, query, "category"),
     guideFacet(db, query, "difficulty"),
-    vehicleFacet(db, query, "vehicle"),
+    vehicleFacet(db, query),
   ]);
+  const total = Number(totalRows[0]?.n ?? 0);
   const fitmentRows = await fitmentFor(
     db,
     rows.map((r) => r.revisionId),
   );
-  const total = Number(totalRows[0]?.n ?? 0);
   const pages = Math.max(1, Math.ceil(total / PAGE_SIZE));
   if (total > 0 && query.page > pages) {
     problems.page = `Page ${query.page} is past the end of this list: it has ${pages} ${pages === 1 ? "page" : "pages"}.`;

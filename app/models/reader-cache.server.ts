@@ -7,7 +7,7 @@ import { type LibraryQuery, listPublishedGuides } from "./library.server";
 /**
  * What every reader sees alike, computed once per content stamp: the catalogue, and the Library's
  * answer for each query. A change to the catalogue or to any guide raises a stamp (triggers of
- * migration 0006), so the next read computes afresh; nothing is served that the database no
+ * migration 0008), so the next read computes afresh; nothing is served that the database no
  * longer holds. Callers must not change what they are given.
  */
 const catalogues = new BoundedCache<number, CatalogueTree>(2);
