@@ -1,13 +1,17 @@
 /**
  * One Library query of the scale benchmark, measured in a process of its own so that the caller
- * can bound it in time (a pathological query cannot be interrupted inside SQLite): the model call
- * `listPublishedGuides`, then the statements it sent (captured through Drizzle's logger) replayed
- * straight on the libSQL client. Reads one JSON job from argv, prints one JSON result line.
+ * can bound it in time (a pathological query cannot be interrupted inside SQLite): the answer the
+ * app serves (`listFromIndex`, the in-memory index, built by its first call), then the SQL model
+ * `listPublishedGuides`, then the statements that sent (captured through Drizzle's logger) replayed
+ * straight on the libSQL client; and whether the two answers are the same. Reads one JSON job from
+ * argv, prints one JSON result line.
  */
 import type { InArgs } from "@libsql/client";
 import { drizzle } from "drizzle-orm/libsql";
 import { configure, createDb } from "~/db/client.server";
 import * as schema from "~/db/schema";
+import { isDeepStrictEqual } from "node:util";
+import { listFromIndex } from "~/models/library-index.server";
 import { listPublishedGuides, parseLibraryQuery } from "~/models/library.server";
 import { summarize } from "./stats";
 import { timeRuns } from "./timing";
@@ -25,10 +29,14 @@ const db = drizzle(client, {
   logger: { logQuery: (query, params) => capture?.push({ sql: query, args: params as InArgs }) },
 });
 const query = parseLibraryQuery(new URLSearchParams(job.query));
+const built = performance.now();
+const served = await listFromIndex(db, query);
+const buildMs = performance.now() - built;
+const index = summarize(await timeRuns(job.runs, () => listFromIndex(db, query), 1, job.budgetMs));
 const statements: { sql: string; args: InArgs }[] = [];
 capture = statements;
 const first = performance.now();
-await listPublishedGuides(db, query);
+const reference = await listPublishedGuides(db, query);
 capture = null;
 // A call slower than the whole budget is measured once more, without a warm-up.
 const warmup = performance.now() - first > job.budgetMs ? 0 : 1;
@@ -44,4 +52,5 @@ const raw = summarize(
   ),
 );
 client.close();
-process.stdout.write(`${JSON.stringify({ model, raw, statements: statements.length })}\n`);
+const same = isDeepStrictEqual(served, reference);
+process.stdout.write(`${JSON.stringify({ index, buildMs, same, model, raw, statements: statements.length })}\n`);

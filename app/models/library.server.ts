@@ -118,7 +118,7 @@ function guideConditions(query: LibraryQuery, without?: Dimension, list = false)
  * callouts_text (the row's rowid is its revision's id). A word in the title says most about a
  * guide; a part or a tool named in its lists says more than a word somewhere in the steps.
  */
-const SEARCH_WEIGHTS = "10, 4, 1, 3, 2, 1";
+export const SEARCH_WEIGHTS = "10, 4, 1, 3, 2, 1";
 
 /**
  * The guides a query reads from (alias g): every guide, or with a search the index's matches
@@ -208,6 +208,16 @@ async function vehicleFacet(db: Db, query: LibraryQuery) {
   return Object.fromEntries(rows.map((r) => [r.value, Number(r.n)]));
 }
 
+/** The model years these generations cover; one still built counts to next year's models. */
+export function catalogueYearsOf(generations: { firstYear: number; lastYear: number | null }[]) {
+  if (!generations.length) return null;
+  const open = new Date().getFullYear() + 1;
+  return {
+    first: Math.min(...generations.map((g) => g.firstYear)),
+    last: Math.max(...generations.map((g) => g.lastYear ?? open)),
+  };
+}
+
 /** The model years the catalogue covers; a generation still built counts to next year's models. */
 export async function catalogueYears(db: Db) {
   const open = new Date().getFullYear() + 1;
@@ -230,7 +240,7 @@ export async function listPublishedGuides(db: Db, asked: LibraryQuery) {
   }
   const where = conditions(query);
   const listWhere = conditions(query, undefined, true);
-  const order = query.q && ftsQuery(query.q) ? sql`s.rank, g.published_at DESC` : sql`g.published_at DESC, g.id DESC`;
+  const order = query.q && ftsQuery(query.q) ? sql`s.rank, g.published_at DESC, g.id DESC` : sql`g.published_at DESC, g.id DESC`;
   const offset = (query.page - 1) * PAGE_SIZE;
   const [rows, totalRows, { powertrain, drivetrain }, category, difficulty, vehicle] = await Promise.all([
     db.all<{
@@ -298,7 +308,7 @@ function fitmentView(f: FitmentWithVehicle) {
   };
 }
 
-async function fitmentFor(db: Db, revisionIds: number[]) {
+export async function fitmentFor(db: Db, revisionIds: number[]) {
   if (!revisionIds.length) return [];
   const rows = await db.query.fitment.findMany({
     where: inArray(fitment.revisionId, revisionIds),

@@ -2,7 +2,8 @@ import type { Db } from "~/db/client.server";
 import { BoundedCache } from "~/utils/bounded-cache";
 import { type CatalogueTree, getCatalogue } from "./catalogue.server";
 import { readContentStamps } from "./content-stamps.server";
-import { type LibraryQuery, listPublishedGuides } from "./library.server";
+import { listFromIndex } from "./library-index.server";
+import type { LibraryQuery } from "./library.server";
 
 /**
  * What every reader sees alike, computed once per content stamp: the catalogue, and the Library's
@@ -23,19 +24,19 @@ export async function readCatalogue(db: Db): Promise<CatalogueTree> {
   return tree;
 }
 
-type LibraryAnswer = Awaited<ReturnType<typeof listPublishedGuides>>;
+type LibraryAnswer = Awaited<ReturnType<typeof listFromIndex>>;
 
 /** A Library answer holds a page of 12 guides and the facet counts: some 10–20 KB each. */
 const LIBRARY_ANSWERS_KEPT = 500;
 const libraryAnswers = new BoundedCache<string, LibraryAnswer>(LIBRARY_ANSWERS_KEPT);
 
-/** `listPublishedGuides`, answered once per query and content stamp. */
+/** The Library's answer (from its in-memory index), kept per query and content stamp. */
 export async function readLibrary(db: Db, query: LibraryQuery): Promise<LibraryAnswer> {
   const stamps = await readContentStamps(db);
   const key = `${stamps.guides}.${stamps.catalogue}:${JSON.stringify(query)}`;
   let answer = libraryAnswers.get(key);
   if (!answer) {
-    answer = await listPublishedGuides(db, query);
+    answer = await listFromIndex(db, query);
     libraryAnswers.set(key, answer);
   }
   return answer;

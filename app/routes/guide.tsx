@@ -55,6 +55,50 @@ function stepHtmlShown(html: string) {
 /** The id of a step's text in the page: where the browser finds it again on hydration. */
 const stepBodyId = (index: number) => `step-${index + 1}-text`;
 
+/** The guide as the page shows it; a document's steps come without their HTML (see the loader). */
+type ShownGuide = Omit<PublishedGuide, "steps"> & {
+  steps: (Omit<PublishedGuide["steps"][number], "html"> & { html: string | undefined })[];
+};
+
+/**
+ * The guide travels to the page as one JSON string, made once per published revision view (and
+ * per document or navigation, and what of the guide row it shows), so React Router hands over one
+ * string instead of walking the whole guide on every request. Kept beside the view it came from.
+ */
+const guideJson = new WeakMap<object, Map<string, string>>();
+
+function shownGuideJson(found: PublishedGuide, document: boolean, bodies: string[]): string {
+  const row = JSON.stringify([document, found.id, found.slug, found.author, found.publishedAt]);
+  const byRow = guideJson.get(found.steps) ?? new Map<string, string>();
+  guideJson.set(found.steps, byRow);
+  let json = byRow.get(row);
+  if (json === undefined) {
+    const guide: ShownGuide = {
+      ...found,
+      steps: found.steps.map(({ html: _html, ...step }, i) => ({ ...step, html: document ? undefined : bodies[i] })),
+    };
+    json = JSON.stringify(guide);
+    byRow.set(row, json);
+  }
+  return json;
+}
+
+let lastRead: { json: string; guide: ShownGuide } | undefined;
+
+/** The guide back from its JSON, its dates as dates; the last one read is kept for meta and the page. */
+function readGuide(json: string): ShownGuide {
+  if (lastRead?.json === json) return lastRead.guide;
+  const parsed = JSON.parse(json) as ShownGuide;
+  const date = (value: Date | string | null) => (value === null ? null : new Date(value));
+  const guide = {
+    ...parsed,
+    publishedAt: date(parsed.publishedAt),
+    revision: { ...parsed.revision, reviewedAt: date(parsed.revision.reviewedAt) },
+  };
+  lastRead = { json, guide };
+  return guide;
+}
+
 export async function loader({ params, request, context }: Route.LoaderArgs) {
   const found = await getPublishedGuide(await getDb(), getStorage(), params.slug);
   if (!found) throw pageErrorResponse(notFound(`A published guide called "${params.slug}"`));
@@ -62,17 +106,18 @@ export async function loader({ params, request, context }: Route.LoaderArgs) {
   const bodies = found.steps.map((step) => stepHtmlShown(step.html));
   const document = isDocumentRequest(request);
   if (document) context.set(documentFragmentsContext, new Map(bodies.map((html, i) => [stepBodyId(i), html])));
-  const guide = {
-    ...found,
-    steps: found.steps.map(({ html: _html, ...step }, i) => ({ ...step, html: document ? undefined : bodies[i] })),
-  };
   // Addresses for the canonical link, Open Graph and the printed page come from the configured public
   // origin, never from the request's Host header.
   const origin = env().APP_ORIGIN;
-  const url = new URL(`/guides/${encodeURIComponent(guide.slug)}`, origin).href;
-  const photo = guide.steps.flatMap((s) => s.photos)[0];
+  const url = new URL(`/guides/${encodeURIComponent(found.slug)}`, origin).href;
+  const photo = found.steps.flatMap((s) => s.photos)[0];
   const image = photo ? shareImage(photo, origin) : null;
-  return { guide, url, image, print: new URL(request.url).searchParams.get("print") === "1" };
+  return {
+    guide: shownGuideJson(found, document, bodies),
+    url,
+    image,
+    print: new URL(request.url).searchParams.get("print") === "1",
+  };
 }
 
 /** The same for every reader who is not signed in: rendered once, and a browser may keep it. */
@@ -80,7 +125,8 @@ export const handle = READER_PAGE;
 
 export const meta: Route.MetaFunction = ({ data }) => {
   if (!data) return [{ title: "Guide not found · Torqueleaf" }];
-  const { guide, url, image } = data;
+  const { url, image } = data;
+  const guide = readGuide(data.guide);
   return [
     { title: `${guide.title} · Torqueleaf` },
     { name: "description", content: guide.summary },
@@ -133,7 +179,8 @@ const jumpLink =
   "inline-flex min-h-11 items-center rounded-full border border-rule bg-white px-3 text-sm font-medium text-spruce-800 hover:bg-paper-deep";
 
 export default function GuidePage({ loaderData }: Route.ComponentProps) {
-  const { guide, url, print } = loaderData;
+  const { url, print } = loaderData;
+  const guide = readGuide(loaderData.guide);
   const article = useRef<HTMLElement>(null);
   useDetailsOpenForPrint(article, print);
   useScrollableFiguresFocusable(article);
