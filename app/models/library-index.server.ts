@@ -82,12 +82,16 @@ async function buildIndex(db: Db): Promise<Index> {
     SELECT f.revision_id AS revisionId, v.generation_id AS generationId, v.powertrain, v.drivetrain
     FROM guides g JOIN fitment f ON f.revision_id = g.published_revision_id AND f.status <> 'does-not-fit'
     JOIN variants v ON v.id = f.variant_id WHERE g.state = 'published'`);
+  // Rows grouped by guide, so a guide's rows come one after another when counting guides per value.
+  const guideOfRow = fitting.map((row) => byRevision.get(row.revisionId) ?? -1);
+  const order = fitting.map((_, i) => i).sort((a, b) => guideOfRow[a] - guideOfRow[b]);
   const rowGuide = new Int32Array(fitting.length);
   const rowGeneration = new Int32Array(fitting.length);
   const rowPowertrain = new Int8Array(fitting.length);
   const rowDrivetrain = new Int8Array(fitting.length);
-  fitting.forEach((row, i) => {
-    rowGuide[i] = byRevision.get(row.revisionId) ?? -1;
+  order.forEach((from, i) => {
+    const row = fitting[from];
+    rowGuide[i] = guideOfRow[from];
     rowGeneration[i] = generationAt.get(row.generationId) ?? -1;
     rowPowertrain[i] = (POWERTRAINS as readonly string[]).indexOf(row.powertrain);
     rowDrivetrain[i] = (DRIVETRAINS as readonly string[]).indexOf(row.drivetrain);
@@ -119,8 +123,6 @@ function indexFor(db: Db, stamps: ContentStamps): Promise<Index> {
   }
   return current.index;
 }
-
-type Dimension = "category" | "difficulty";
 
 /**
  * Per generation: whether it meets the query's make, model, generation and year filters (`all`),
@@ -178,11 +180,28 @@ export async function listFromIndex(db: Db, asked: LibraryQuery) {
     }
   }
 
-  // Per guide: whether some fitting variant meets every vehicle filter, and every filter but one.
+  // Per guide: whether it meets the filters on its own columns (and the search), all of them or all
+  // but the category or the difficulty (for those two facets).
+  const ok = new Uint8Array(count);
+  const okButCategory = new Uint8Array(count);
+  const okButDifficulty = new Uint8Array(count);
+  for (let g = 0; g < count; g++) {
+    if (rank && Number.isNaN(rank[g])) continue;
+    const category = !query.category || guides[g].category === query.category;
+    const difficulty = !query.difficulty || guides[g].difficulty === query.difficulty;
+    ok[g] = category && difficulty ? 1 : 0;
+    okButCategory[g] = difficulty ? 1 : 0;
+    okButDifficulty[g] = category ? 1 : 0;
+  }
+
+  // Per guide, from its fitting variants: whether one meets every vehicle filter, and which
+  // powertrains (bits) and drivetrains have one meeting every vehicle filter but their own; per
+  // generation, how many guides that meet every other filter have a variant of it.
   const vehicleAll = new Uint8Array(count);
-  const powertrainSeen = POWERTRAINS.map(() => new Uint8Array(count));
-  const drivetrainSeen = DRIVETRAINS.map(() => new Uint8Array(count));
-  const generationGuides = new Map<number, Set<number>>();
+  const powertrainBits = new Uint8Array(count);
+  const drivetrainBits = new Uint8Array(count);
+  const generationCounts = new Int32Array(index.generations.length);
+  const generationLast = new Int32Array(index.generations.length).fill(-1);
   const vehicleFiltered = hasVehicleFilter(query);
   const { rowGuide, rowGeneration, rowPowertrain, rowDrivetrain } = index;
   const generation = generationFilters(index, query);
@@ -196,52 +215,39 @@ export async function listFromIndex(db: Db, asked: LibraryQuery) {
     const drivetrain = wantDrivetrain < 0 || rowDrivetrain[r] === wantDrivetrain;
     const named = generation.all[gen] === 1;
     if (named && powertrain && drivetrain) vehicleAll[g] = 1;
-    if (named && drivetrain) powertrainSeen[rowPowertrain[r]][g] = 1;
-    if (named && powertrain) drivetrainSeen[rowDrivetrain[r]][g] = 1;
-    if (generation.year[gen] === 1 && powertrain && drivetrain) {
-      const set = generationGuides.get(gen) ?? new Set<number>();
-      if (set.size === 0) generationGuides.set(gen, set);
-      set.add(g);
+    if (named && drivetrain) powertrainBits[g] |= 1 << rowPowertrain[r];
+    if (named && powertrain) drivetrainBits[g] |= 1 << rowDrivetrain[r];
+    // Rows come grouped by guide: a guide is counted once per generation.
+    if (ok[g] === 1 && generation.year[gen] === 1 && powertrain && drivetrain && generationLast[gen] !== g) {
+      generationLast[gen] = g;
+      generationCounts[gen]++;
     }
   }
-
-  const guideMeets = (g: number, without?: Dimension) => {
-    const guide = guides[g];
-    if (rank && Number.isNaN(rank[g])) return false;
-    if (query.category && without !== "category" && guide.category !== query.category) return false;
-    if (query.difficulty && without !== "difficulty" && guide.difficulty !== query.difficulty) return false;
-    return true;
-  };
 
   const matching: number[] = [];
   const categoryCounts = new Map<string, number>();
   const difficultyCounts = new Map<string, number>();
+  const powertrainCounts = new Int32Array(POWERTRAINS.length);
+  const drivetrainCounts = new Int32Array(DRIVETRAINS.length);
   for (let g = 0; g < count; g++) {
-    const fits = !vehicleFiltered || vehicleAll[g] === 1;
-    if (fits && guideMeets(g)) matching.push(g);
-    if (fits && guideMeets(g, "category")) {
-      categoryCounts.set(guides[g].category, (categoryCounts.get(guides[g].category) ?? 0) + 1);
+    if (ok[g] === 1) {
+      for (let v = 0; v < POWERTRAINS.length; v++) if (powertrainBits[g] & (1 << v)) powertrainCounts[v]++;
+      for (let v = 0; v < DRIVETRAINS.length; v++) if (drivetrainBits[g] & (1 << v)) drivetrainCounts[v]++;
     }
-    if (fits && guideMeets(g, "difficulty")) {
+    if (vehicleFiltered && vehicleAll[g] !== 1) continue;
+    if (ok[g] === 1) matching.push(g);
+    if (okButCategory[g] === 1) categoryCounts.set(guides[g].category, (categoryCounts.get(guides[g].category) ?? 0) + 1);
+    if (okButDifficulty[g] === 1) {
       const key = String(guides[g].difficulty);
       difficultyCounts.set(key, (difficultyCounts.get(key) ?? 0) + 1);
     }
   }
-  const variantFacet = (values: readonly string[], seen: Uint8Array[]) => {
-    const counts = new Map<string, number>();
-    values.forEach((value, v) => {
-      let n = 0;
-      for (let g = 0; g < count; g++) if (seen[v][g] === 1 && guideMeets(g)) n++;
-      counts.set(value, n);
-    });
-    return sortedCounts(counts);
-  };
+  const variantFacet = (values: readonly string[], counts: Int32Array) =>
+    sortedCounts(new Map(values.map((value, v) => [value, counts[v]])));
   const vehicleCounts = new Map<string, number>();
-  for (const [id, set] of generationGuides) {
-    let n = 0;
-    for (const g of set) if (guideMeets(g)) n++;
-    vehicleCounts.set(index.generations[id].key, n);
-  }
+  generationCounts.forEach((n, gen) => {
+    if (n > 0) vehicleCounts.set(index.generations[gen].key, n);
+  });
 
   // Newest first, or by rank (then newest) with a search; ties last by id, newest first.
   if (rank) {
@@ -269,8 +275,8 @@ export async function listFromIndex(db: Db, asked: LibraryQuery) {
     pageSize: PAGE_SIZE,
     pages,
     facets: {
-      powertrain: variantFacet(POWERTRAINS, powertrainSeen),
-      drivetrain: variantFacet(DRIVETRAINS, drivetrainSeen),
+      powertrain: variantFacet(POWERTRAINS, powertrainCounts),
+      drivetrain: variantFacet(DRIVETRAINS, drivetrainCounts),
       category: sortedCounts(new Map(CATEGORIES.map((c) => [c, categoryCounts.get(c) ?? 0]))),
       difficulty: sortedCounts(difficultyCounts),
       vehicle: sortedCounts(vehicleCounts),
