@@ -49,7 +49,24 @@ type Index = {
   rowDrivetrain: Int8Array;
   generations: Generation[];
   years: { first: number; last: number } | null;
+  /** Working arrays of one query, reused (a query fills and reads them without awaiting). */
+  scratch: Scratch;
 };
+
+type Scratch = ReturnType<typeof scratchFor>;
+
+function scratchFor(guides: number, generations: number) {
+  return {
+    ok: new Uint8Array(guides),
+    okButCategory: new Uint8Array(guides),
+    okButDifficulty: new Uint8Array(guides),
+    vehicleAll: new Uint8Array(guides),
+    powertrainBits: new Uint8Array(guides),
+    drivetrainBits: new Uint8Array(guides),
+    generationCounts: new Int32Array(generations),
+    generationLast: new Int32Array(generations),
+  };
+}
 
 async function buildIndex(db: Db): Promise<Index> {
   const guideRows = await db.all<Guide>(sql`
@@ -105,6 +122,7 @@ async function buildIndex(db: Db): Promise<Index> {
     rowDrivetrain,
     generations,
     years: catalogueYearsOf(generationRows),
+    scratch: scratchFor(guides.length, generations.length),
   };
 }
 
@@ -182,9 +200,12 @@ export async function listFromIndex(db: Db, asked: LibraryQuery) {
 
   // Per guide: whether it meets the filters on its own columns (and the search), all of them or all
   // but the category or the difficulty (for those two facets).
-  const ok = new Uint8Array(count);
-  const okButCategory = new Uint8Array(count);
-  const okButDifficulty = new Uint8Array(count);
+  const { ok, okButCategory, okButDifficulty, vehicleAll, powertrainBits, drivetrainBits, generationCounts, generationLast } =
+    index.scratch;
+  for (const array of [ok, okButCategory, okButDifficulty, vehicleAll, powertrainBits, drivetrainBits, generationCounts]) {
+    array.fill(0);
+  }
+  generationLast.fill(-1);
   for (let g = 0; g < count; g++) {
     if (rank && Number.isNaN(rank[g])) continue;
     const category = !query.category || guides[g].category === query.category;
@@ -197,11 +218,6 @@ export async function listFromIndex(db: Db, asked: LibraryQuery) {
   // Per guide, from its fitting variants: whether one meets every vehicle filter, and which
   // powertrains (bits) and drivetrains have one meeting every vehicle filter but their own; per
   // generation, how many guides that meet every other filter have a variant of it.
-  const vehicleAll = new Uint8Array(count);
-  const powertrainBits = new Uint8Array(count);
-  const drivetrainBits = new Uint8Array(count);
-  const generationCounts = new Int32Array(index.generations.length);
-  const generationLast = new Int32Array(index.generations.length).fill(-1);
   const vehicleFiltered = hasVehicleFilter(query);
   const { rowGuide, rowGeneration, rowPowertrain, rowDrivetrain } = index;
   const generation = generationFilters(index, query);
