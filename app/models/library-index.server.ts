@@ -4,12 +4,13 @@ import { CATEGORIES, DRIVETRAINS, POWERTRAINS } from "~/utils/vocab";
 import { type ContentStamps, readContentStamps } from "./content-stamps.server";
 import {
   catalogueYearsOf,
-  fitmentFor,
   ftsQuery,
-  type LibraryProblems,
   type LibraryQuery,
+  type LibraryRow,
+  libraryAnswer,
   PAGE_SIZE,
   SEARCH_WEIGHTS,
+  usableQuery,
 } from "./library.server";
 
 /**
@@ -22,18 +23,7 @@ import {
  * index for its matches and their rank, and the page's fitment comes from the database.
  */
 
-type Guide = {
-  id: number;
-  slug: string;
-  title: string;
-  summary: string;
-  category: string;
-  difficulty: number;
-  minutes: number;
-  revisionId: number;
-  author: string;
-  publishedAt: number;
-};
+type Guide = LibraryRow & { publishedAt: number };
 
 type Generation = { id: number; key: string; make: string; model: string; slug: string; firstYear: number; lastYear: number };
 
@@ -172,16 +162,7 @@ function sortedCounts(counts: Map<string, number>): Record<string, number> {
 /** `listPublishedGuides`, answered from the index. */
 export async function listFromIndex(db: Db, asked: LibraryQuery) {
   const index = await indexFor(db, await readContentStamps(db));
-  const problems: LibraryProblems = { ...asked.problems };
-  let query = asked;
-  if (asked.year !== undefined) {
-    const years = index.years;
-    if (!years || asked.year < years.first || asked.year > years.last) {
-      const range = years ? `it lists vehicles from ${years.first} to ${years.last}` : "it lists no vehicles yet";
-      problems.year = `Model year ${asked.year} is outside the catalogue: ${range}. The list below is not filtered by year.`;
-      query = { ...asked, year: undefined };
-    }
-  }
+  const { query, problems } = usableQuery(asked, index.years);
   const { guides } = index;
   const count = guides.length;
 
@@ -272,24 +253,12 @@ export async function listFromIndex(db: Db, asked: LibraryQuery) {
   }
   const total = matching.length;
   const offset = (query.page - 1) * PAGE_SIZE;
-  const rows = matching.slice(offset, offset + PAGE_SIZE).map((g) => guides[g]);
-  const fitmentRows = await fitmentFor(
-    db,
-    rows.map((r) => r.revisionId),
-  );
-  const pages = Math.max(1, Math.ceil(total / PAGE_SIZE));
-  if (total > 0 && query.page > pages) {
-    problems.page = `Page ${query.page} is past the end of this list: it has ${pages} ${pages === 1 ? "page" : "pages"}.`;
-  }
-  return {
-    guides: rows.map(({ id: _id, revisionId, publishedAt: _p, ...g }) => ({
-      ...g,
-      fitment: fitmentRows.filter((f) => f.revisionId === revisionId).map(({ revisionId: _r, ...f }) => f),
-    })),
+  return libraryAnswer(db, query, {
+    rows: matching.slice(offset, offset + PAGE_SIZE).map((g) => {
+      const { publishedAt: _p, ...row } = guides[g];
+      return row;
+    }),
     total,
-    page: query.page,
-    pageSize: PAGE_SIZE,
-    pages,
     facets: {
       powertrain: variantFacet(POWERTRAINS, powertrainCounts),
       drivetrain: variantFacet(DRIVETRAINS, drivetrainCounts),
@@ -298,5 +267,5 @@ export async function listFromIndex(db: Db, asked: LibraryQuery) {
       vehicle: sortedCounts(vehicleCounts),
     },
     problems,
-  };
+  });
 }

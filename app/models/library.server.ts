@@ -227,43 +227,42 @@ export async function catalogueYears(db: Db) {
   return row?.first ? { first: Number(row.first), last: Number(row.last) } : null;
 }
 
-export async function listPublishedGuides(db: Db, asked: LibraryQuery) {
+/** A guide as the Library lists it, before its fitment is added. */
+export type LibraryRow = {
+  id: number;
+  slug: string;
+  title: string;
+  summary: string;
+  category: string;
+  difficulty: number;
+  minutes: number;
+  revisionId: number;
+  author: string;
+};
+
+type Facets = Record<"powertrain" | "drivetrain" | "category" | "difficulty" | "vehicle", Record<string, number>>;
+
+/**
+ * The query as it can be used: a model year outside the catalogue is dropped, with a sentence
+ * saying so among the problems.
+ */
+export function usableQuery(asked: LibraryQuery, years: { first: number; last: number } | null) {
   const problems: LibraryProblems = { ...asked.problems };
-  let query = asked;
-  if (asked.year !== undefined) {
-    const years = await catalogueYears(db);
-    if (!years || asked.year < years.first || asked.year > years.last) {
-      const range = years ? `it lists vehicles from ${years.first} to ${years.last}` : "it lists no vehicles yet";
-      problems.year = `Model year ${asked.year} is outside the catalogue: ${range}. The list below is not filtered by year.`;
-      query = { ...asked, year: undefined };
-    }
+  if (asked.year === undefined || (years && asked.year >= years.first && asked.year <= years.last)) {
+    return { query: asked, problems };
   }
-  const where = conditions(query);
-  const listWhere = conditions(query, undefined, true);
-  const order = query.q && ftsQuery(query.q) ? sql`s.rank, g.published_at DESC, g.id DESC` : sql`g.published_at DESC, g.id DESC`;
-  const offset = (query.page - 1) * PAGE_SIZE;
-  const [rows, totalRows, { powertrain, drivetrain }, category, difficulty, vehicle] = await Promise.all([
-    db.all<{
-      id: number;
-      slug: string;
-      title: string;
-      summary: string;
-      category: string;
-      difficulty: number;
-      minutes: number;
-      revisionId: number;
-      author: string;
-    }>(sql`SELECT g.id, g.slug, g.title, g.summary, g.category, g.difficulty, g.minutes,
-        g.published_revision_id AS revisionId, u.name AS author
-      FROM ${guideSource(query)} JOIN users u ON u.id = g.author_id
-      WHERE ${listWhere} ORDER BY ${order} LIMIT ${PAGE_SIZE} OFFSET ${offset}`),
-    db.all<{ n: number }>(sql`SELECT count(*) AS n FROM ${guideSource(query)} WHERE ${where}`),
-    variantFacets(db, query),
-    guideFacet(db, query, "category"),
-    guideFacet(db, query, "difficulty"),
-    vehicleFacet(db, query),
-  ]);
-  const total = Number(totalRows[0]?.n ?? 0);
+  const range = years ? `it lists vehicles from ${years.first} to ${years.last}` : "it lists no vehicles yet";
+  problems.year = `Model year ${asked.year} is outside the catalogue: ${range}. The list below is not filtered by year.`;
+  return { query: { ...asked, year: undefined }, problems };
+}
+
+/** The Library's answer: a page of guides with their fitment, the total, the facets and the problems. */
+export async function libraryAnswer(
+  db: Db,
+  query: LibraryQuery,
+  page: { rows: LibraryRow[]; total: number; facets: Facets; problems: LibraryProblems },
+) {
+  const { rows, total, facets, problems } = page;
   const fitmentRows = await fitmentFor(
     db,
     rows.map((r) => r.revisionId),
@@ -281,10 +280,36 @@ export async function listPublishedGuides(db: Db, asked: LibraryQuery) {
     page: query.page,
     pageSize: PAGE_SIZE,
     pages,
-    facets: { powertrain, drivetrain, category, difficulty, vehicle },
+    facets,
     /** What in the query could not be used, by field (year, q, page), as a sentence for the reader. */
     problems,
   };
+}
+
+export async function listPublishedGuides(db: Db, asked: LibraryQuery) {
+  const { query, problems } = usableQuery(asked, asked.year === undefined ? null : await catalogueYears(db));
+  const where = conditions(query);
+  const listWhere = conditions(query, undefined, true);
+  const order = query.q && ftsQuery(query.q) ? sql`s.rank, g.published_at DESC, g.id DESC` : sql`g.published_at DESC, g.id DESC`;
+  const offset = (query.page - 1) * PAGE_SIZE;
+  const [rows, totalRows, { powertrain, drivetrain }, category, difficulty, vehicle] = await Promise.all([
+    db.all<LibraryRow>(sql`SELECT g.id, g.slug, g.title, g.summary, g.category, g.difficulty, g.minutes,
+        g.published_revision_id AS revisionId, u.name AS author
+      FROM ${guideSource(query)} JOIN users u ON u.id = g.author_id
+      WHERE ${listWhere} ORDER BY ${order} LIMIT ${PAGE_SIZE} OFFSET ${offset}`),
+    db.all<{ n: number }>(sql`SELECT count(*) AS n FROM ${guideSource(query)} WHERE ${where}`),
+    variantFacets(db, query),
+    guideFacet(db, query, "category"),
+    guideFacet(db, query, "difficulty"),
+    vehicleFacet(db, query),
+  ]);
+  const total = Number(totalRows[0]?.n ?? 0);
+  return libraryAnswer(db, query, {
+    rows,
+    total,
+    facets: { powertrain, drivetrain, category, difficulty, vehicle },
+    problems,
+  });
 }
 
 type FitmentWithVehicle = LoadedRevision["fitment"][number];
