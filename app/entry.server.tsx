@@ -59,12 +59,13 @@ export default function handleRequest(
     }
     responseHeaders.set("Content-Type", "text/html");
     const kept = keptDocument(shared.key, nonce);
-    if (kept !== undefined)
-      return new Response(new Uint8Array(kept.buffer, kept.byteOffset, kept.length), { status: 200, headers: responseHeaders });
+    if (kept !== undefined) return new Response(kept, { status: 200, headers: responseHeaders });
     return renderWhole(routerContext, request.url, fragments).then(({ html, failed }) => {
-      // A render that failed part-way is answered as the error it is, and not kept.
-      if (failed) responseHeaders.set("Cache-Control", "no-store");
-      else keepDocument(shared.key, html);
+      // A render that failed part-way is answered as the error it is: not kept, and no ETag to ask again by.
+      if (failed) {
+        responseHeaders.set("Cache-Control", "no-store");
+        responseHeaders.delete("ETag");
+      } else keepDocument(shared.key, html);
       return new Response(html.replaceAll(NONCE_STAND_IN, nonce), { status: failed ? 500 : 200, headers: responseHeaders });
     });
   }
@@ -80,39 +81,48 @@ export default function handleRequest(
     // Abort after `streamTimeout`, leaving time to flush the rejected boundaries.
     let timeoutId: ReturnType<typeof setTimeout> | undefined = setTimeout(() => abort(), streamTimeout + 1000);
 
-    const { pipe, abort } = renderToPipeableStream(
-      <CspNonce.Provider value={nonce}>
-        <DocumentFragments.Provider value={fragments}>
-          <ServerRouter context={routerContext} url={request.url} nonce={nonce} />
-        </DocumentFragments.Provider>
-      </CspNonce.Provider>,
-      {
-        nonce,
-        [readyOption]() {
-          shellRendered = true;
-          const body = new PassThrough({
-            final(callback) {
-              clearTimeout(timeoutId);
-              timeoutId = undefined;
-              callback();
-            },
-          });
-          const stream = createReadableStreamFromReadable(body);
-          responseHeaders.set("Content-Type", "text/html");
-          pipe(body);
-          resolve(new Response(stream, { headers: responseHeaders, status: responseStatusCode }));
-        },
-        onShellError(error: unknown) {
-          reject(error);
-        },
-        onError(error: unknown) {
-          responseStatusCode = 500;
-          // Errors while the shell renders reject and are logged by React Router; later ones are logged here.
-          if (shellRendered) console.error(error);
-        },
+    const { pipe, abort } = renderToPipeableStream(documentTree(routerContext, request.url, nonce, fragments), {
+      nonce,
+      [readyOption]() {
+        shellRendered = true;
+        const body = new PassThrough({
+          final(callback) {
+            clearTimeout(timeoutId);
+            timeoutId = undefined;
+            callback();
+          },
+        });
+        const stream = createReadableStreamFromReadable(body);
+        responseHeaders.set("Content-Type", "text/html");
+        pipe(body);
+        resolve(new Response(stream, { headers: responseHeaders, status: responseStatusCode }));
       },
-    );
+      onShellError(error: unknown) {
+        reject(error);
+      },
+      onError(error: unknown) {
+        responseStatusCode = 500;
+        // Errors while the shell renders reject and are logged by React Router; later ones are logged here.
+        if (shellRendered) console.error(error);
+      },
+    });
   });
+}
+
+/** The document: the router with this answer's nonce and the HTML fragments rendered beside the data. */
+function documentTree(
+  routerContext: EntryContext,
+  url: string,
+  nonce: string,
+  fragments: ReadonlyMap<string, string> | undefined,
+) {
+  return (
+    <CspNonce.Provider value={nonce}>
+      <DocumentFragments.Provider value={fragments}>
+        <ServerRouter context={routerContext} url={url} nonce={nonce} />
+      </DocumentFragments.Provider>
+    </CspNonce.Provider>
+  );
 }
 
 /** The whole document as one string, rendered with the nonce stand-in, for keeping. */
@@ -125,29 +135,22 @@ function renderWhole(
     const chunks: Buffer[] = [];
     let failed = false;
     const timeoutId = setTimeout(() => abort(), streamTimeout + 1000);
-    const { pipe, abort } = renderToPipeableStream(
-      <CspNonce.Provider value={NONCE_STAND_IN}>
-        <DocumentFragments.Provider value={fragments}>
-          <ServerRouter context={routerContext} url={url} nonce={NONCE_STAND_IN} />
-        </DocumentFragments.Provider>
-      </CspNonce.Provider>,
-      {
-        nonce: NONCE_STAND_IN,
-        onAllReady() {
-          const sink = new PassThrough();
-          sink.on("data", (chunk: Buffer) => chunks.push(chunk));
-          sink.on("end", () => {
-            clearTimeout(timeoutId);
-            resolve({ html: Buffer.concat(chunks).toString("utf8"), failed });
-          });
-          pipe(sink);
-        },
-        onShellError: reject,
-        onError(error: unknown) {
-          failed = true;
-          console.error(error);
-        },
+    const { pipe, abort } = renderToPipeableStream(documentTree(routerContext, url, NONCE_STAND_IN, fragments), {
+      nonce: NONCE_STAND_IN,
+      onAllReady() {
+        const sink = new PassThrough();
+        sink.on("data", (chunk: Buffer) => chunks.push(chunk));
+        sink.on("end", () => {
+          clearTimeout(timeoutId);
+          resolve({ html: Buffer.concat(chunks).toString("utf8"), failed });
+        });
+        pipe(sink);
       },
-    );
+      onShellError: reject,
+      onError(error: unknown) {
+        failed = true;
+        console.error(error);
+      },
+    });
   });
 }

@@ -210,9 +210,9 @@ async function searchRanks(db: Db, index: Index, match: string): Promise<Float64
   return rank;
 }
 
-/** `listPublishedGuides`, answered from the index. */
-export async function listFromIndex(db: Db, asked: LibraryQuery) {
-  const index = await indexFor(db, await readContentStamps(db));
+/** `listPublishedGuides`, answered from the index (`stamps`: read by the caller for this request). */
+export async function listFromIndex(db: Db, asked: LibraryQuery, stamps?: ContentStamps) {
+  const index = await indexFor(db, stamps ?? (await readContentStamps(db)));
   const { query, problems } = usableQuery(asked, index.years);
   const { guides } = index;
   const count = guides.length;

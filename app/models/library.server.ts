@@ -1,7 +1,7 @@
 import { eq, inArray, type SQL, sql } from "drizzle-orm";
 import { z } from "zod";
 import type { Db } from "~/db/client.server";
-import { fitment, guides, users } from "~/db/schema";
+import { fitment, generations, guides, users } from "~/db/schema";
 import { evaluateCallout, storedCallout } from "~/engine/callouts";
 import type { Storage } from "~/services/storage.server";
 import { BoundedCache } from "~/utils/bounded-cache";
@@ -209,22 +209,20 @@ async function vehicleFacet(db: Db, query: LibraryQuery) {
 }
 
 /** The model years these generations cover; one still built counts to next year's models. */
-export function catalogueYearsOf(generations: { firstYear: number; lastYear: number | null }[]) {
-  if (!generations.length) return null;
+export function catalogueYearsOf(spans: { firstYear: number; lastYear: number | null }[]) {
+  if (!spans.length) return null;
   const open = new Date().getFullYear() + 1;
   return {
-    first: Math.min(...generations.map((g) => g.firstYear)),
-    last: Math.max(...generations.map((g) => g.lastYear ?? open)),
+    first: Math.min(...spans.map((g) => g.firstYear)),
+    last: Math.max(...spans.map((g) => g.lastYear ?? open)),
   };
 }
 
-/** The model years the catalogue covers; a generation still built counts to next year's models. */
+/** The model years the catalogue covers. */
 export async function catalogueYears(db: Db) {
-  const open = new Date().getFullYear() + 1;
-  const [row] = await db.all<{ first: number | null; last: number | null }>(
-    sql`SELECT min(first_year) AS first, max(coalesce(last_year, ${open})) AS last FROM generations`,
+  return catalogueYearsOf(
+    await db.select({ firstYear: generations.firstYear, lastYear: generations.lastYear }).from(generations),
   );
-  return row?.first ? { first: Number(row.first), last: Number(row.last) } : null;
 }
 
 /** A guide as the Library lists it, before its fitment is added. */

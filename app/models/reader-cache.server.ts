@@ -1,7 +1,7 @@
 import type { Db } from "~/db/client.server";
 import { BoundedCache } from "~/utils/bounded-cache";
 import { type CatalogueTree, getCatalogue } from "./catalogue.server";
-import { readContentStamps } from "./content-stamps.server";
+import { type ContentStamps, readContentStamps } from "./content-stamps.server";
 import { listFromIndex } from "./library-index.server";
 import type { LibraryQuery } from "./library.server";
 
@@ -13,9 +13,9 @@ import type { LibraryQuery } from "./library.server";
  */
 const catalogues = new BoundedCache<number, CatalogueTree>(2);
 
-/** The vehicle catalogue as `getCatalogue` returns it. */
-export async function readCatalogue(db: Db): Promise<CatalogueTree> {
-  const { catalogue: stamp } = await readContentStamps(db);
+/** The vehicle catalogue as `getCatalogue` returns it (`stamps`: read by the caller for this request). */
+export async function readCatalogue(db: Db, stamps?: ContentStamps): Promise<CatalogueTree> {
+  const { catalogue: stamp } = stamps ?? (await readContentStamps(db));
   let tree = catalogues.get(stamp);
   if (!tree) {
     tree = await getCatalogue(db);
@@ -31,12 +31,12 @@ const LIBRARY_ANSWERS_KEPT = 500;
 const libraryAnswers = new BoundedCache<string, LibraryAnswer>(LIBRARY_ANSWERS_KEPT);
 
 /** The Library's answer (from its in-memory index), kept per query and content stamp. */
-export async function readLibrary(db: Db, query: LibraryQuery): Promise<LibraryAnswer> {
-  const stamps = await readContentStamps(db);
-  const key = `${stamps.guides}.${stamps.catalogue}:${JSON.stringify(query)}`;
+export async function readLibrary(db: Db, query: LibraryQuery, stamps?: ContentStamps): Promise<LibraryAnswer> {
+  const now = stamps ?? (await readContentStamps(db));
+  const key = `${now.guides}.${now.catalogue}:${JSON.stringify(query)}`;
   let answer = libraryAnswers.get(key);
   if (!answer) {
-    answer = await listFromIndex(db, query);
+    answer = await listFromIndex(db, query, now);
     libraryAnswers.set(key, answer);
   }
   return answer;

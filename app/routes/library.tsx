@@ -6,6 +6,7 @@ import { formatMinutes } from "~/utils/format";
 import { getDb } from "~/db/client.server";
 import { yearsLabel } from "~/models/catalogue.server";
 import { type LibraryQuery, parseLibraryQuery, withoutEmptyParams } from "~/models/library.server";
+import { readContentStamps } from "~/models/content-stamps.server";
 import { readCatalogue, readLibrary } from "~/models/reader-cache.server";
 import { CATEGORIES, CATEGORY_LABELS, DIFFICULTY_LABELS, DRIVETRAINS, POWERTRAIN_LABELS, POWERTRAINS } from "~/utils/vocab";
 import { Pager } from "~/components/pager";
@@ -40,7 +41,8 @@ export async function loader({ request }: Route.LoaderArgs) {
   }
   const query = parseLibraryQuery(params);
   const db = await getDb();
-  const [result, catalogue] = await Promise.all([readLibrary(db, query), readCatalogue(db)]);
+  const stamps = await readContentStamps(db);
+  const [result, catalogue] = await Promise.all([readLibrary(db, query, stamps), readCatalogue(db, stamps)]);
   const vehicles = catalogue.flatMap((make) =>
     make.models.flatMap((model) => [
       { value: `${make.slug}.${model.slug}`, label: `${make.name} ${model.name} (all years)` },
