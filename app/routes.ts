@@ -9,6 +9,8 @@ export default [
   route("api/catalogue", "routes/api.catalogue.ts"),
   route("api/guides", "routes/api.guides.ts"),
   route("api/guides/:slug", "routes/api.guide.ts"),
+  // Authoring: a guide by its id, for its author and the editors.
+  route("api/guides/:id/draft", "routes/api.guide-draft.ts"),
   route("api/circuit", "routes/api.circuit.ts"),
   // Accounts, sign-in and administration of users.
   route("signup", "routes/signup.tsx"),

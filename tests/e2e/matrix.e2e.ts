@@ -18,7 +18,12 @@ const fixtures = {
   /** In review in the demo data: not public. */
   unpublishedSlug: "fjell-phev-rear-usb-charger",
   photo: "",
+  /** The demo author's draft (the seed's seventh guide) and another author's published guide (its second). */
+  ownGuideId: 7,
+  otherGuideId: 2,
 };
+const guidePath = (suffix: string) => (who: Who) =>
+  `/api/guides/${who === "authorOther" ? fixtures.otherGuideId : fixtures.ownGuideId}/${suffix}`;
 const badToken = "not-a-real-token-0123456789abcdefghijklmnop";
 
 const MATRIX: Record<string, Probe[]> = {
@@ -45,6 +50,11 @@ const MATRIX: Record<string, Probe[]> = {
   "/api/guides/:slug": [
     { path: `/api/guides/${fixtures.publishedSlug}`, expect: all(200) },
     { path: `/api/guides/${fixtures.unpublishedSlug}`, expect: all(404) },
+  ],
+  // Only the draft's author writes it; editors and admins read it for review.
+  "/api/guides/:id/draft": [
+    { path: guidePath("draft"), expect: { ...only(["editor", "admin"], 200, 403, 401), authorOwn: 200 } },
+    { method: "PUT", path: guidePath("draft"), json: {}, expect: { ...all(403, { anonymous: 401 }), authorOwn: 400 } },
   ],
   "/api/circuit": [
     { path: "/api/circuit", expect: all(405) },
@@ -120,6 +130,14 @@ beforeAll(async () => {
   };
   const url = guide.steps.flatMap((s) => s.photos)[0].variants[0].url;
   fixtures.photo = new URL(url, origin).pathname;
+  // The guide ids above are the seed's order: check they still name the guides the rows mean.
+  const own = await fetch(`${origin}/api/guides/${fixtures.ownGuideId}/draft`, {
+    headers: { cookie: sessions.get("authorOwn") ?? "" },
+  });
+  const view = (await own.json()) as { guide?: { slug: string; state: string } };
+  if (view.guide?.slug !== "fjell-f3-hardwired-dash-camera" || view.guide.state !== "draft") {
+    throw new Error(`guide ${fixtures.ownGuideId} is not the demo author's draft: ${JSON.stringify(view).slice(0, 200)}`);
+  }
 });
 
 describe("authorization matrix", () => {

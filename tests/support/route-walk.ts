@@ -31,6 +31,8 @@ export async function moduleShape(file: string): Promise<RouteModuleShape> {
 export const fixtures = {
   publishedSlug: "kestrel-hood-auxiliary-lamps",
   badToken: "not-a-real-token-0123456789abcdefghijklmnop",
+  /** The demo author's draft: the seventh guide the seed writes (content-samples/guides/index.ts). */
+  draftGuideId: 7,
 };
 
 /** One URL per route pattern, with its parameters filled in; `photo` is looked up from the running app. */
@@ -44,6 +46,7 @@ export const ROUTE_PATHS: Record<string, (photo: string) => string[]> = {
   "/api/guides": () => ["/api/guides"],
   "/api/guides/:slug": () => [`/api/guides/${fixtures.publishedSlug}`],
   "/api/circuit": () => ["/api/circuit"],
+  "/api/guides/:id/draft": () => [`/api/guides/${fixtures.draftGuideId}/draft`, "/api/guides/not-a-number/draft"],
   "/signup": () => ["/signup"],
   "/login": () => ["/login"],
   "/logout": () => ["/logout"],
