@@ -12,7 +12,7 @@ export default defineConfig({
         extends: true,
         test: {
           name: "unit",
-          include: ["app/**/*.test.ts", "tests/unit/**/*.test.ts"],
+          include: ["app/**/*.test.{ts,tsx}", "tests/unit/**/*.test.ts"],
         },
       },
       {

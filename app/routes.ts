@@ -25,6 +25,10 @@ export default [
   route("me/account", "routes/me.account.tsx"),
   route("contributor-terms", "routes/contributor-terms.tsx"),
   route("admin/users", "routes/admin.users.tsx"),
+  // Authoring.
+  route("workbench", "routes/workbench.tsx"),
+  route("workbench/guides/new", "routes/workbench.guides.new.tsx"),
+  route("workbench/guides/:id/preview", "routes/workbench.guide-preview.tsx"),
   route("api/me", "routes/api.me.ts"),
   // Any other /api address answers in the API's JSON error shape, not with the HTML 404 page.
   route("api/*", "routes/api.not-found.ts"),

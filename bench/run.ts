@@ -6,6 +6,7 @@
  *   npm run bench -- --quick         the same in under 2 minutes (shorter runs, 15 s of readers)
  *   npm run bench -- --scale PATH    Library filters and search at scale (a `npm run bench:data` database)
  *   npm run bench -- --models        the model functions in-process on the demo database
+ *   npm run bench -- --authoring     autosave of a 40-step guide and the photo pipeline, in-process
  *   --rebuild                        build both apps even when their builds look up to date
  */
 import { rmSync } from "node:fs";
@@ -13,6 +14,8 @@ import { availableParallelism, loadavg } from "node:os";
 import { dirname, join } from "node:path";
 import { baseDataKey } from "../tests/support/services";
 import type { CannonResult } from "./load";
+import { runAuthoring } from "./authoring";
+import { bundleFigures } from "./bundles";
 import { runModels } from "./models";
 import { runScale } from "./scale";
 import {
@@ -102,6 +105,14 @@ async function mainRun() {
   await buildTorqueleaf();
   const bareBuilt = await buildIfStale(BARE_DIR, bareInputs, rebuild);
   console.log(bareBuilt ? "built the bare app (bench/bare)" : "the bare app's build is up to date");
+  const bundles = await bundleFigures(ROOT);
+  console.log("\nJavaScript each page loads (gzip, from the build's manifest)\n");
+  console.log(
+    formatTable(
+      ["page", "KiB gzip", "÷ app root"],
+      bundles.map((b) => [b.label, b.kib.toFixed(1), formatRatio(b.ratio)]),
+    ),
+  );
   const demo = await demoDatabase();
 
   const bare = await startBare(BARE_PORT);
@@ -217,7 +228,10 @@ async function mainRun() {
 }
 
 try {
-  if (args.includes("--models")) {
+  if (args.includes("--authoring")) {
+    const demo = await demoDatabase();
+    await runAuthoring(demo.databaseFile, plan.modelRuns);
+  } else if (args.includes("--models")) {
     const demo = await demoDatabase();
     await runModels(demo.databaseFile, plan.modelRuns);
   } else if (scalePath) {

@@ -341,11 +341,12 @@ export async function fitmentFor(db: Db, revisionIds: number[]) {
 }
 
 /**
- * What a published revision shows a reader, engine results included. A published revision never
- * changes, so this is computed once per revision and catalogue stamp (the fitment rows name the
- * catalogue's vehicles) and kept in a bounded cache; callers must not change what they are given.
+ * What a revision shows a reader, engine results included: the published guide page, and the
+ * author's preview of a draft. A published revision never changes, so its view is computed once
+ * per revision and catalogue stamp (the fitment rows name the catalogue's vehicles) and kept in a
+ * bounded cache; callers must not change what they are given.
  */
-async function publishedRevisionView(db: Db, storage: Pick<Storage, "publicUrl">, revisionId: number) {
+export async function revisionView(db: Db, storage: Pick<Storage, "publicUrl">, revisionId: number) {
   const loaded = await loadRevision(db, revisionId);
   if (!loaded) return null;
   const { revision } = loaded;
@@ -387,7 +388,7 @@ async function publishedRevisionView(db: Db, storage: Pick<Storage, "publicUrl">
 
 /** About 50 KB each for a long guide: a few MB for the guides readers open most. */
 const REVISION_VIEWS_KEPT = 200;
-const revisionViews = new BoundedCache<string, Awaited<ReturnType<typeof publishedRevisionView>>>(REVISION_VIEWS_KEPT);
+const revisionViews = new BoundedCache<string, Awaited<ReturnType<typeof revisionView>>>(REVISION_VIEWS_KEPT);
 
 /** A published guide as the reader sees it, with every callout evaluated by the engine. */
 export async function getPublishedGuide(db: Db, storage: Pick<Storage, "publicUrl">, slug: string) {
@@ -407,7 +408,7 @@ export async function getPublishedGuide(db: Db, storage: Pick<Storage, "publicUr
   const key = `${guide.publishedRevisionId}:${(await readContentStamps(db)).catalogue}`;
   let view = revisionViews.get(key);
   if (!view) {
-    view = await publishedRevisionView(db, storage, guide.publishedRevisionId);
+    view = await revisionView(db, storage, guide.publishedRevisionId);
     if (view) revisionViews.set(key, view);
   }
   if (!view) return null;

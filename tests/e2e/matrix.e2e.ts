@@ -24,6 +24,8 @@ const fixtures = {
 };
 const guidePath = (suffix: string) => (who: Who) =>
   `/api/guides/${who === "authorOther" ? fixtures.otherGuideId : fixtures.ownGuideId}/${suffix}`;
+const editorPath = (suffix: string) => (who: Who) =>
+  `/workbench/guides/${who === "authorOther" ? fixtures.otherGuideId : fixtures.ownGuideId}${suffix}`;
 const badToken = "not-a-real-token-0123456789abcdefghijklmnop";
 
 const MATRIX: Record<string, Probe[]> = {
@@ -112,6 +114,24 @@ const MATRIX: Record<string, Probe[]> = {
   "/admin/users": [
     { path: "/admin/users", expect: only(["admin"], 200, 403, 302) },
     { method: "POST", path: "/admin/users", form: { intent: "none" }, expect: only(["admin"], 400, 403, 302) },
+  ],
+  // A reader gets the Workbench page that leads to the contributor terms; writing needs an author.
+  "/workbench": [
+    { path: "/workbench", expect: signedIn(200, 302) },
+    { method: "POST", path: "/workbench", form: { intent: "none" }, expect: signedIn(400, 302) },
+  ],
+  "/workbench/guides/new": [
+    { path: "/workbench/guides/new", expect: only(["author", "editor", "admin"], 200, 403, 302) },
+    {
+      method: "POST",
+      path: "/workbench/guides/new",
+      form: { title: "" },
+      expect: only(["author", "editor", "admin"], 400, 403, 302),
+    },
+  ],
+  // Editors and admins may read an author's draft (for review); only its author edits it.
+  "/workbench/guides/:id/preview": [
+    { path: editorPath("/preview"), expect: { ...only(["editor", "admin"], 200, 403, 302), authorOwn: 200 } },
   ],
   "/api/*": [
     { path: "/api/no-such-endpoint", expect: all(404) },
