@@ -10,7 +10,11 @@ export default [
   route("api/guides", "routes/api.guides.ts"),
   route("api/guides/:slug", "routes/api.guide.ts"),
   // Authoring: a guide by its id, for its author and the editors.
+  route("api/guides/import", "routes/api.guides-import.ts"),
   route("api/guides/:id/draft", "routes/api.guide-draft.ts"),
+  route("api/guides/:id/submit", "routes/api.guide-submit.ts"),
+  route("api/guides/:id/revision", "routes/api.guide-revision.ts"),
+  route("api/guides/:id/export", "routes/api.guide-export.ts"),
   route("api/circuit", "routes/api.circuit.ts"),
   // Accounts, sign-in and administration of users.
   route("signup", "routes/signup.tsx"),

@@ -26,7 +26,8 @@ export const guideMetaSchema = z.object({
 
 export const stepPhotoSchema = z.object({
   mediaId: z.number().int().positive(),
-  alt: z.string().trim().min(3, "Describe the photo for readers who cannot see it").max(300),
+  // A draft may hold a photo whose description is still to come; submitting needs one (guides.server.ts).
+  alt: z.string().trim().max(300, "Keep the description under 300 characters").default(""),
   caption: optionalText(300),
 });
 
@@ -90,3 +91,25 @@ export const draftInputSchema = guideMetaSchema
 export type GuideMetaInput = z.infer<typeof guideMetaSchema>;
 export type DraftInput = z.infer<typeof draftInputSchema>;
 export type StepInput = z.infer<typeof stepInputSchema>;
+
+export const submitInputSchema = z.object({
+  changeSummary: z.string().trim().max(1000, "Keep the change summary under 1000 characters").default(""),
+});
+
+/** The marker and version of an exported draft (`GET /api/guides/:id/export?format=json`). */
+export const DRAFT_EXPORT_FORMAT = "torqueleaf-draft";
+export const DRAFT_EXPORT_VERSION = 1;
+
+const exportMarker = z.object({
+  format: z.literal(DRAFT_EXPORT_FORMAT, { error: `This is not a Torqueleaf draft export (format "${DRAFT_EXPORT_FORMAT}")` }),
+  formatVersion: z.literal(DRAFT_EXPORT_VERSION, {
+    error: `Only version ${DRAFT_EXPORT_VERSION} of the draft export can be imported`,
+  }),
+});
+
+/** An exported draft as `POST /api/guides/import` takes it: the draft's fields beside the marker; no version of its own. */
+export const draftImportSchema = z.preprocess(
+  (value) => (typeof value === "object" && value !== null && !Array.isArray(value) ? { ...value, version: 1 } : value),
+  z.intersection(exportMarker, draftInputSchema),
+);
+export type DraftImport = z.infer<typeof draftImportSchema>;

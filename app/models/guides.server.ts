@@ -2,7 +2,7 @@ import { asc, eq, inArray, like, sql } from "drizzle-orm";
 import { batch } from "~/db/batch.server";
 import type { Db } from "~/db/client.server";
 import { callouts, fitment, guides, media, parts, revisions, stepPhotos, steps, tools, variants } from "~/db/schema";
-import { calloutRow, storedCallout } from "~/engine/callouts";
+import { type Callout, calloutRow, storedCallout } from "~/engine/callouts";
 import { runSafetyRules } from "~/engine/rules";
 import { renderBody } from "~/services/richtext.server";
 import { AppError, fromDbError, notFound } from "~/utils/errors";
@@ -120,25 +120,19 @@ export function rulesInput(loaded: Pick<LoadedRevision, "steps" | "fitment">) {
 }
 
 /**
- * Replaces the working revision's content in one batch. The first statement moves the version on
- * by one; a trigger refuses it when another save came first or the revision is already submitted,
- * and the whole batch rolls back.
+ * Everything about a draft that the schema alone cannot check, before anything is written: each
+ * step's rich text (rendered here, once), that every fitment row names a known variant, and that
+ * every photo was uploaded by the actor. Problems come back together as one 400 keyed by field.
  */
-export async function saveDraft(db: Db, guideId: number, actor: Actor, input: DraftInput) {
-  const guide = await getGuideById(db, guideId);
-  if (!guide) throw notFound("This guide");
-  assertCan(actor, "update:guide", guide);
-  if (!guide.workingRevisionId) throw new AppError(409, "wrong-state", "This guide has no draft to save into.");
-  const revisionId = guide.workingRevisionId;
-
+export async function checkDraft(db: Db, actor: Actor, input: DraftInput) {
   const fields: Record<string, string> = {};
   const rendered = input.steps.map((step, i) => {
     try {
       return renderBody(step.body);
     } catch (error) {
       if (!(error instanceof AppError)) throw error;
-      fields[`steps.${i}.body`] = error.message;
-      return { html: "", text: "" };
+      fields[`steps.${i}.body`] = `Step ${i + 1}: ${error.message}`;
+      return { html: "", text: "", json: {} };
     }
   });
   const variantIds = input.fitment.map((f) => f.variantId);
@@ -168,6 +162,30 @@ export async function saveDraft(db: Db, guideId: number, actor: Actor, input: Dr
     });
   });
   if (Object.keys(fields).length) throw new AppError(400, "invalid", "Some fields need attention.", fields);
+  return { rendered, knownVariants };
+}
+
+export const FROZEN_MESSAGE =
+  "This revision is with the editors for review, so it cannot change now. If they ask for changes, you carry on in a new draft.";
+
+/**
+ * Replaces the working revision's content in one batch. The first statement moves the version on
+ * by one; a trigger refuses it when another save came first or the revision is already submitted,
+ * and the whole batch rolls back.
+ */
+export async function saveDraft(db: Db, guideId: number, actor: Actor, input: DraftInput) {
+  const guide = await getGuideById(db, guideId);
+  if (!guide) throw notFound("This guide");
+  assertCan(actor, "update:guide", guide);
+  if (!guide.workingRevisionId) {
+    throw new AppError(409, "wrong-state", "This guide has no open draft: start a new revision to change it.");
+  }
+  const revisionId = guide.workingRevisionId;
+  const [current] = await db.select({ state: revisions.state }).from(revisions).where(eq(revisions.id, revisionId));
+  // The triggers refuse it too; this says why in words the author can act on.
+  if (current && current.state !== "draft")
+    throw new AppError(409, "wrong-state", FROZEN_MESSAGE, undefined, { state: current.state });
+  const { rendered, knownVariants } = await checkDraft(db, actor, input);
 
   const stepId = (position: number) => sql`(SELECT id FROM steps WHERE revision_id = ${revisionId} AND position = ${position})`;
   const meta = {
@@ -193,7 +211,7 @@ export async function saveDraft(db: Db, guideId: number, actor: Actor, input: Dr
         revisionId,
         position,
         title: step.title,
-        body: step.body,
+        body: rendered[position].json,
         bodyHtml: rendered[position].html,
         bodyText: rendered[position].text,
         liftsVehicle: step.liftsVehicle,
@@ -224,13 +242,80 @@ export async function saveDraft(db: Db, guideId: number, actor: Actor, input: Dr
   return { version: input.version + 1, revisionId, findings };
 }
 
-/** What a revision still lacks before an editor can look at it (the API's 422 `missing`). */
+export const ALT_MIN_CHARS = 3;
+const SUMMARY_MIN_CHARS = 10;
+
+/** What a revision still lacks before an editor can look at it (the API's 422 `missing`, one word per kind of gap). */
 export function missingForSubmit(loaded: LoadedRevision): string[] {
-  const missing: string[] = [];
-  if (loaded.revision.summary.trim().length < 10) missing.push("summary");
-  if (loaded.steps.length === 0) missing.push("steps");
-  if (loaded.steps.some((s) => s.bodyText.trim() === "")) missing.push("steps.body");
-  if (loaded.fitment.length === 0) missing.push("fitment");
-  if (loaded.steps.some((s) => s.photos.some((p) => !p.alt.trim()))) missing.push("steps.photos.alt");
-  return missing;
+  return submitProblems(loaded).missing;
+}
+
+/** A circuit callout the engine can check completely: wire and fuse chosen, the relay decided, a battery feed's fuse placed. */
+function circuitGaps(callout: Callout): Record<string, string> {
+  if (callout.kind !== "circuit") return {};
+  const gaps: Record<string, string> = {};
+  if (callout.wire === undefined) gaps.wire = "Choose the wire size";
+  if (callout.fuseA === undefined) gaps.fuseA = "Choose the fuse rating";
+  if (callout.relay === undefined) gaps.relay = "Say whether the circuit uses a relay";
+  if (callout.feed === "battery" && callout.fuseDistanceMm === undefined) {
+    gaps.fuseDistanceMm = "Give the wire length from the battery terminal to the fuse";
+  }
+  return gaps;
+}
+
+/**
+ * Everything to fix before submitting, both as the short `missing` list and as `fields`: a message
+ * per place in the draft (`steps.2.photos.0.alt`, `steps.1.callouts.0.wire`, `changeSummary` …),
+ * so the editor can link each one to its field. Blocking safety findings count: the author can
+ * fix all of them (engine.md §3); `caution-unsigned` is the editors' and is not among them.
+ */
+export function submitProblems(
+  loaded: Pick<LoadedRevision, "revision" | "steps" | "fitment">,
+  options: { changeSummary?: string; publishedBefore?: boolean } = {},
+): { missing: string[]; fields: Record<string, string> } {
+  const missing = new Set<string>();
+  const fields: Record<string, string> = {};
+  const add = (kind: string, path: string, message: string) => {
+    missing.add(kind);
+    fields[path] ??= message;
+  };
+  if (loaded.revision.summary.trim().length < SUMMARY_MIN_CHARS) {
+    add("summary", "summary", `Write a summary of at least ${SUMMARY_MIN_CHARS} characters`);
+  }
+  if (loaded.steps.length === 0) add("steps", "steps", "Add at least one step");
+  loaded.steps.forEach((step, i) => {
+    if (step.bodyText.trim() === "") add("steps.body", `steps.${i}.body`, `Step ${i + 1}: write what to do in this step`);
+  });
+  if (loaded.fitment.length === 0) add("fitment", "fitment", "Mark at least one vehicle variant in the fitment matrix");
+  loaded.steps.forEach((step, i) => {
+    step.photos.forEach((photo, j) => {
+      if (photo.alt.trim().length < ALT_MIN_CHARS) {
+        add(
+          "steps.photos.alt",
+          `steps.${i}.photos.${j}.alt`,
+          `Step ${i + 1}, photo ${j + 1}: describe the photo for readers who cannot see it`,
+        );
+      }
+    });
+  });
+  loaded.steps.forEach((step, i) => {
+    step.callouts.forEach((row, j) => {
+      for (const [field, message] of Object.entries(circuitGaps(storedCallout(row)))) {
+        add("steps.callouts", `steps.${i}.callouts.${j}.${field}`, `Step ${i + 1}, circuit: ${message.toLowerCase()}`);
+      }
+    });
+  });
+  for (const finding of runSafetyRules(rulesInput(loaded))) {
+    if (finding.severity !== "blocking") continue;
+    const path =
+      finding.calloutIndex === undefined
+        ? `steps.${finding.stepIndex}.callouts`
+        : `steps.${finding.stepIndex}.callouts.${finding.calloutIndex}`;
+    missing.add("findings");
+    fields[path] = fields[path] ? `${fields[path]} ${finding.message}` : finding.message;
+  }
+  if (options.publishedBefore && !options.changeSummary?.trim()) {
+    add("changeSummary", "changeSummary", "Say what changed since the published revision");
+  }
+  return { missing: [...missing], fields };
 }

@@ -21,7 +21,7 @@ import { runSafetyRules } from "~/engine/rules";
 import { AppError, notFound } from "~/utils/errors";
 import { type Actor, assertCan } from "~/utils/permissions";
 import { auditInsert } from "./audit.server";
-import { getGuideById, loadRevision, missingForSubmit, rulesInput, runBatch } from "./guides.server";
+import { getGuideById, loadRevision, rulesInput, runBatch, submitProblems } from "./guides.server";
 import type { AcknowledgeInput, RequestChangesInput, ReviewDecision, SignOffInput } from "./review-input";
 
 const sqlName = (column: Column) => (column.keyAsName ? toSnakeCase(column.name) : column.name);
@@ -109,7 +109,19 @@ export async function startNextRevision(db: Db, guideId: number, actor: Actor) {
   const guide = await getGuideById(db, guideId);
   if (!guide) throw notFound("This guide");
   assertCan(actor, "update:guide", guide);
-  if (guide.workingRevisionId) return guide.workingRevisionId;
+  if (guide.workingRevisionId) {
+    const [working] = await db
+      .select({ state: revisions.state })
+      .from(revisions)
+      .where(eq(revisions.id, guide.workingRevisionId));
+    // An open draft is simply carried on; one that is with the editors waits for their decision.
+    if (working?.state === "draft") return guide.workingRevisionId;
+    throw new AppError(
+      409,
+      "wrong-state",
+      "The latest revision is with the editors: wait for their decision before starting another.",
+    );
+  }
   if (!guide.publishedRevisionId) throw new AppError(409, "wrong-state", "This guide has no revision to continue from.");
   const number = await nextRevisionNumber(db, guideId);
   try {
@@ -133,16 +145,17 @@ export async function submitRevision(db: Db, guideId: number, actor: Actor, chan
   if (loaded.revision.state !== "draft") {
     throw new AppError(409, "wrong-state", "This revision is already with the editors.");
   }
-  const missing = missingForSubmit(loaded);
+  const summary = changeSummary.trim();
+  const { missing, fields } = submitProblems(loaded, { changeSummary: summary, publishedBefore: !!guide.publishedRevisionId });
   if (missing.length) {
-    throw new AppError(422, "incomplete", "The draft is not ready for review yet.", undefined, { missing });
+    throw new AppError(422, "incomplete", "The draft is not ready for review yet: fix the fields listed.", fields, { missing });
   }
   const found = runSafetyRules(rulesInput(loaded));
   const revisionId = loaded.revision.id;
   await runBatch(db, [
     db
       .update(revisions)
-      .set({ state: "in-review", submittedAt: new Date(), changeSummary })
+      .set({ state: "in-review", submittedAt: new Date(), changeSummary: summary || null })
       .where(and(eq(revisions.id, revisionId), eq(revisions.state, "draft"))),
     ...found.map((f) =>
       db.insert(findings).values({
@@ -160,7 +173,7 @@ export async function submitRevision(db: Db, guideId: number, actor: Actor, chan
       action: "revision.submit",
       subjectType: "revision",
       subjectId: revisionId,
-      reason: changeSummary,
+      reason: summary || null,
       data: { findings: found.length },
     }),
   ]);

@@ -47,7 +47,8 @@ const MATRIX: Record<string, Probe[]> = {
   "/api/catalogue": [{ path: "/api/catalogue", expect: all(200) }],
   "/api/guides": [
     { path: "/api/guides", expect: all(200) },
-    { method: "POST", path: "/api/guides", json: {}, expect: all(405) },
+    // A new guide is an author's (editors and admins write too); an empty body is refused by field.
+    { method: "POST", path: "/api/guides", json: {}, expect: all(400, { anonymous: 401, reader: 403 }) },
   ],
   "/api/guides/:slug": [
     { path: `/api/guides/${fixtures.publishedSlug}`, expect: all(200) },
@@ -57,6 +58,30 @@ const MATRIX: Record<string, Probe[]> = {
   "/api/guides/:id/draft": [
     { path: guidePath("draft"), expect: { ...only(["editor", "admin"], 200, 403, 401), authorOwn: 200 } },
     { method: "PUT", path: guidePath("draft"), json: {}, expect: { ...all(403, { anonymous: 401 }), authorOwn: 400 } },
+  ],
+  "/api/guides/import": [
+    { path: "/api/guides/import", expect: all(405) },
+    { method: "POST", path: "/api/guides/import", json: {}, expect: all(400, { anonymous: 401, reader: 403 }) },
+  ],
+  "/api/guides/:id/submit": [
+    { path: guidePath("submit"), expect: all(405) },
+    // A change summary that is not text: refused for the owner before anything is submitted.
+    {
+      method: "POST",
+      path: guidePath("submit"),
+      json: { changeSummary: 5 },
+      expect: { ...all(403, { anonymous: 401 }), authorOwn: 400 },
+    },
+  ],
+  "/api/guides/:id/revision": [
+    { path: guidePath("revision"), expect: all(405) },
+    // The demo draft is still open, so its author is handed it back (200) and nothing is copied.
+    { method: "POST", path: guidePath("revision"), expect: { ...all(403, { anonymous: 401 }), authorOwn: 200 } },
+  ],
+  "/api/guides/:id/export": [
+    { path: guidePath("export?format=json"), expect: { ...only(["editor", "admin"], 200, 403, 401), authorOwn: 200 } },
+    { path: guidePath("export?format=markdown"), expect: { ...only(["editor", "admin"], 200, 403, 401), authorOwn: 200 } },
+    { path: guidePath("export?format=pdf"), expect: { ...only(["editor", "admin"], 400, 403, 401), authorOwn: 400 } },
   ],
   "/api/circuit": [
     { path: "/api/circuit", expect: all(405) },

@@ -148,7 +148,7 @@ describe("approval", () => {
   });
 
   it("is refused with 409 while a blocking finding remains, which no acknowledgement clears", async () => {
-    const created = await guideLike(PUBLISHED_SLUG, "Auxiliary lamps with the front raised", (input) => {
+    const raise = (input: ReturnType<typeof draftFrom>) => {
       input.steps.push({
         title: "Raise the front",
         body: { type: "doc", content: [{ type: "paragraph", content: [{ type: "text", text: "Jack up the front." }] }] },
@@ -157,11 +157,27 @@ describe("approval", () => {
         photos: [],
         callouts: [],
       });
-    });
+    };
+    // engine/rules.ts: a step that lifts the vehicle needs a caution about stands (common practice).
+    // The author can fix that, so submitting refuses it and says where.
+    const unsupported = await guideLike(PUBLISHED_SLUG, "Auxiliary lamps with the front raised", raise);
+    const refusedSubmit = await rejection(submitRevision(db, unsupported.id, author, "First version"));
+    expect(refusedSubmit).toMatchObject({ status: 422, extra: { missing: ["findings"] } });
+    expect(Object.keys(refusedSubmit.fields ?? {})).toEqual([expect.stringMatching(/^steps\.\d+\.callouts$/)]);
+
+    // A blocking finding can still be on the desk: one stored with the revision after it was
+    // submitted (a rule that changed meanwhile). Approval must not pass it either.
+    const created = await guideLike(PUBLISHED_SLUG, "Auxiliary lamps, checked again");
     const { revisionId } = await submitRevision(db, created.id, author, "First version");
+    await db.insert(findings).values({
+      revisionId,
+      rule: "support-caution-missing",
+      severity: "blocking",
+      stepIndex: 0,
+      message: "Step 1 lifts the vehicle but carries no caution about supporting it on stands.",
+    });
     const stored = await db.query.findings.findMany({ where: eq(findings.revisionId, revisionId) });
     const blocking = stored.filter((f) => f.severity === "blocking");
-    // engine/rules.ts: a step that lifts the vehicle needs a caution about stands (common practice).
     expect(blocking.map((f) => f.rule)).toContain("support-caution-missing");
 
     for (const caution of await revisionCautions(db, revisionId)) {
