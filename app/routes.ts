@@ -32,6 +32,7 @@ export default [
   // Authoring.
   route("workbench", "routes/workbench.tsx"),
   route("workbench/guides/new", "routes/workbench.guides.new.tsx"),
+  route("workbench/guides/:id", "routes/workbench.guide.tsx"),
   route("workbench/guides/:id/preview", "routes/workbench.guide-preview.tsx"),
   route("api/me", "routes/api.me.ts"),
   // Any other /api address answers in the API's JSON error shape, not with the HTML 404 page.

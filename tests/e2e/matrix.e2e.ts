@@ -155,6 +155,7 @@ const MATRIX: Record<string, Probe[]> = {
     },
   ],
   // Editors and admins may read an author's draft (for review); only its author edits it.
+  "/workbench/guides/:id": [{ path: editorPath(""), expect: { ...only(["editor", "admin"], 200, 403, 302), authorOwn: 200 } }],
   "/workbench/guides/:id/preview": [
     { path: editorPath("/preview"), expect: { ...only(["editor", "admin"], 200, 403, 302), authorOwn: 200 } },
   ],

@@ -68,6 +68,7 @@ export const ROUTE_PATHS: Record<string, (photo: string) => string[]> = {
   "/admin/users": () => ["/admin/users"],
   "/workbench": () => ["/workbench"],
   "/workbench/guides/new": () => ["/workbench/guides/new"],
+  "/workbench/guides/:id": () => ["/workbench/guides/1", "/workbench/guides/not-a-number"],
   "/workbench/guides/:id/preview": () => ["/workbench/guides/1/preview"],
   "/api/me": () => ["/api/me"],
   "/api/*": () => ["/api/no-such-endpoint"],

@@ -26,7 +26,7 @@ const draft = (titles: string[], partSteps: (number | null)[] = []): EditorDraft
 });
 
 /** The title of the step each part points at: what must survive every change to the step list. */
-const partTargets = (d: EditorDraft) => d.parts.map((p) => (p.stepIndex === null ? null : d.steps[p.stepIndex].title));
+const partTargets = (d: EditorDraft) => d.parts.map((p) => (p.stepIndex == null ? null : d.steps[p.stepIndex].title));
 
 describe("step changes keep parts pointing at their step", () => {
   it("moving, inserting and duplicating keep each part's step; removing a step frees its parts", () => {

@@ -13,13 +13,14 @@ export type EditorStep = {
   photos: EditorPhoto[];
   callouts: unknown[];
 };
-export type EditorFitment = { variantId: number; status: "fits" | "fits-with-changes" | "does-not-fit"; note: string | null };
+export type EditorFitment = { variantId: number; status: "fits" | "fits-with-changes" | "does-not-fit"; note?: string | null };
+/** Half-filled rows are kept as typed; the server names what is missing when it saves. */
 export type EditorPart = {
   name: string;
-  quantity: number;
-  partNumber: string | null;
-  notes: string | null;
-  stepIndex: number | null;
+  quantity?: number;
+  partNumber?: string | null;
+  notes?: string | null;
+  stepIndex?: number | null;
 };
 export type EditorDraft = {
   title: string;
@@ -53,7 +54,7 @@ export function moveItem<T>(list: readonly T[], from: number, to: number): T[] {
  * part keeps pointing at the step it was for, and loses its step when that one is removed.
  */
 function remapParts(parts: EditorPart[], map: (index: number) => number | null): EditorPart[] {
-  return parts.map((p) => (p.stepIndex === null ? p : { ...p, stepIndex: map(p.stepIndex) }));
+  return parts.map((p) => (p.stepIndex === null || p.stepIndex === undefined ? p : { ...p, stepIndex: map(p.stepIndex) }));
 }
 
 export function addStep(draft: EditorDraft, at = draft.steps.length): EditorDraft {
@@ -166,7 +167,9 @@ export function mergeDrafts(mine: EditorDraft, theirs: EditorDraft, choices: Rec
   // A part that points past the last step kept loses its step rather than failing the save.
   return {
     ...merged,
-    parts: merged.parts.map((p) => (p.stepIndex !== null && p.stepIndex >= steps.length ? { ...p, stepIndex: null } : p)),
+    parts: merged.parts.map((p) =>
+      typeof p.stepIndex === "number" && p.stepIndex >= steps.length ? { ...p, stepIndex: null } : p,
+    ),
   };
 }
 

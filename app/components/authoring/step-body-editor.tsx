@@ -29,6 +29,8 @@ export function StepBodyEditor({
     extensions: stepBodyExtensions,
     content: value,
     immediatelyRender: false,
+    // Its own <style> element would break the page's style-src policy; app.css carries the few rules.
+    injectCSS: false,
     editorProps: {
       attributes: {
         id,
