@@ -112,14 +112,15 @@ function wireLabel(wire: { awg: number } | { mm2: number } | undefined) {
 
 /** One callout as a readable quoted block. */
 export function calloutMarkdown(callout: Callout): string[] {
-  const quote = (lines: string[]) => lines.map((line) => (line ? `> ${line}` : ">"));
+  // One paragraph per line inside the quote, so a Markdown reader keeps them apart.
+  const quote = (lines: string[]) => lines.flatMap((line, i) => (i ? [">", `> ${line}`] : [`> ${line}`]));
   switch (callout.kind) {
     case "torque": {
       const { values, estimate } = evaluateCallout(callout);
       const detail = [
         callout.size,
         callout.propertyClass && `class ${callout.propertyClass}`,
-        callout.lubricated ? "lubricated" : "dry",
+        callout.lubricated ? "lubricated" : callout.lubricated === false || callout.estimate ? "dry" : null,
       ]
         .filter(Boolean)
         .join(", ");
@@ -127,7 +128,7 @@ export function calloutMarkdown(callout: Callout): string[] {
       if (values) lines.push(`${torqueUnits(values)}`);
       if (estimate) lines.push(`Estimate: ${torqueUnits(estimate)}. ${estimate.caution}`);
       if (callout.threadlocker) lines.push(`Threadlocker: ${escapeMd(callout.threadlocker)}`);
-      if (callout.valueSource) lines.push(`Value from ${TORQUE_SOURCE_LABELS[callout.valueSource]}.`);
+      if (callout.valueSource) lines.push(`Source: ${TORQUE_SOURCE_LABELS[callout.valueSource]}.`);
       return quote(lines);
     }
     case "circuit": {
