@@ -15,6 +15,9 @@ export const VARIANT_WIDTHS = [480, 960, 1600] as const;
 /** Image jobs running at once in this process; the rest wait their turn. */
 export const IMAGE_JOBS_AT_ONCE = 2;
 
+/** What the pipeline needs of the store: writing objects, and deleting them again on failure. */
+export type PhotoStore = Pick<Storage, "put" | "delete">;
+
 export type PhotoType = "jpeg" | "png" | "webp" | "heic";
 
 export const ACCEPTED_FORMATS_TEXT = "JPEG, PNG, WebP or HEIC";
@@ -116,7 +119,7 @@ async function decodeInput(input: Buffer, type: PhotoType): Promise<Decoded> {
  * unless asked) and stores WebP and JPEG copies at each width. The original is never stored. If
  * any step fails, the objects already written are deleted before the error goes on.
  */
-export function processImage(storage: Storage, input: Buffer): Promise<ProcessedImage> {
+export function processImage(storage: PhotoStore, input: Buffer): Promise<ProcessedImage> {
   if (input.byteLength > MAX_UPLOAD_BYTES) {
     return Promise.reject(tooLarge(`The photo is larger than ${MAX_UPLOAD_BYTES / 1024 / 1024} MB.`));
   }
@@ -125,7 +128,7 @@ export function processImage(storage: Storage, input: Buffer): Promise<Processed
   return jobs(() => runJob(storage, input, type));
 }
 
-async function runJob(storage: Storage, input: Buffer, type: PhotoType): Promise<ProcessedImage> {
+async function runJob(storage: PhotoStore, input: Buffer, type: PhotoType): Promise<ProcessedImage> {
   const source = await decodeInput(input, type);
   const largest = Math.max(...VARIANT_WIDTHS);
   // Decode once, upright, to the largest width needed (never enlarged), and make every variant from that.
