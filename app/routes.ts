@@ -16,6 +16,7 @@ export default [
   route("api/guides/:id/revision", "routes/api.guide-revision.ts"),
   route("api/guides/:id/export", "routes/api.guide-export.ts"),
   route("api/circuit", "routes/api.circuit.ts"),
+  route("api/media", "routes/api.media.ts"),
   // Accounts, sign-in and administration of users.
   route("signup", "routes/signup.tsx"),
   route("login", "routes/login.tsx"),

@@ -6,6 +6,9 @@ import { bodyLimit } from "~/services/http/body-limit.server";
 import { refuseUnsupportedMethods } from "~/services/http/request-shape.server";
 import { stampRequestKind } from "~/services/http/request-kind.server";
 import { securityHeadersLayer } from "~/services/http/security-headers.server";
+import { getDb } from "~/db/client.server";
+import { sweepUnusedMedia } from "~/models/media.server";
+import { getStorage } from "~/services/storage.server";
 import { boot } from "./boot";
 
 /**
@@ -42,6 +45,14 @@ const listening = () =>
   console.log(`Torqueleaf is serving ${settings.APP_ORIGIN} (${settings.HOST || "every interface"}, port ${settings.PORT})`);
 // HOST empty: every interface.
 const server = settings.HOST ? app.listen(settings.PORT, settings.HOST, listening) : app.listen(settings.PORT, listening);
+// Hourly: photos no draft uses for 24 h go, with their objects. Unref'd: it never keeps the process up.
+setInterval(
+  () =>
+    getDb()
+      .then((db) => sweepUnusedMedia(db, getStorage()))
+      .catch((error) => console.error("media sweep failed:", error)),
+  60 * 60 * 1000,
+).unref();
 for (const signal of ["SIGINT", "SIGTERM"] as const) {
   process.on(signal, () => {
     server.close();

@@ -1,5 +1,13 @@
 import type { Readable } from "node:stream";
-import { CreateBucketCommand, GetObjectCommand, HeadBucketCommand, PutObjectCommand, S3Client } from "@aws-sdk/client-s3";
+import {
+  CreateBucketCommand,
+  DeleteObjectCommand,
+  GetObjectCommand,
+  HeadBucketCommand,
+  ListObjectsV2Command,
+  PutObjectCommand,
+  S3Client,
+} from "@aws-sdk/client-s3";
 import { type Env, env } from "~/utils/env.server";
 
 export type Storage = ReturnType<typeof createStorage>;
@@ -43,6 +51,21 @@ export function createStorage(
     async get(key: string) {
       const out = await client.send(new GetObjectCommand({ Bucket: bucket, Key: key }));
       return { body: out.Body as Readable, contentType: out.ContentType, contentLength: out.ContentLength };
+    },
+    /** Removes objects by key; a key already gone is no error (S3 DeleteObject answers 204 either way). */
+    async delete(keys: string[]) {
+      for (const key of keys) await client.send(new DeleteObjectCommand({ Bucket: bucket, Key: key }));
+    },
+    /** Every key under a prefix, page by page (ListObjectsV2 returns at most 1,000 per call). */
+    async list(prefix: string): Promise<string[]> {
+      const keys: string[] = [];
+      let token: string | undefined;
+      do {
+        const out = await client.send(new ListObjectsV2Command({ Bucket: bucket, Prefix: prefix, ContinuationToken: token }));
+        for (const item of out.Contents ?? []) if (item.Key) keys.push(item.Key);
+        token = out.IsTruncated ? out.NextContinuationToken : undefined;
+      } while (token);
+      return keys;
     },
     /** Public address of a stored object: the CDN/bucket URL when configured, else the app's media route. */
     publicUrl(key: string) {

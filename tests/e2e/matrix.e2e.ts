@@ -87,6 +87,7 @@ const MATRIX: Record<string, Probe[]> = {
     { path: "/api/circuit", expect: all(405) },
     { method: "POST", path: "/api/circuit", json: {}, expect: all(400) },
   ],
+  "/api/media": [{ method: "POST", path: "/api/media", form: {}, expect: all(415, { anonymous: 401, reader: 403 }) }],
   "/api/me": [
     { path: "/api/me", expect: all(200) },
     { method: "POST", path: "/api/me", json: {}, expect: all(405) },

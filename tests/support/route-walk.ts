@@ -46,6 +46,7 @@ export const ROUTE_PATHS: Record<string, (photo: string) => string[]> = {
   "/api/guides": () => ["/api/guides"],
   "/api/guides/:slug": () => [`/api/guides/${fixtures.publishedSlug}`],
   "/api/circuit": () => ["/api/circuit"],
+  "/api/media": () => ["/api/media"],
   "/api/guides/import": () => ["/api/guides/import"],
   "/api/guides/:id/draft": () => [`/api/guides/${fixtures.draftGuideId}/draft`, "/api/guides/not-a-number/draft"],
   "/api/guides/:id/submit": () => [`/api/guides/${fixtures.draftGuideId}/submit`],
