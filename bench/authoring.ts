@@ -4,6 +4,7 @@
  * pipeline (bench/photos.ts) beside raw sharp.
  */
 import { formatMs, formatTable, summarize } from "./stats";
+import { photoBench } from "./photos";
 import { timeRuns } from "./timing";
 
 /** A long guide as an author would leave it: every step with text, a torque and a circuit callout or a caution. */
@@ -88,4 +89,5 @@ export async function runAuthoring(databaseFile: string, runs: number) {
       [["PUT draft: 40 steps, 40 callouts", formatMs(p50), formatMs(p99), formatMs(mean)]],
     ),
   );
+  for (const line of await photoBench()) console.log(line);
 }

@@ -8,7 +8,11 @@ const MB = 1024 * KB;
  * row whose method and path match wins; otherwise the body's type decides.
  */
 export const BODY_LIMITS = {
-  paths: [{ method: "POST", path: /^\/api\/media\/?$/, bytes: 20 * MB }] as { method: string; path: RegExp; bytes: number }[],
+  paths: [{ method: "POST", path: /^\/api\/media\/?$/, bytes: 25 * MB + 64 * KB }] as {
+    method: string;
+    path: RegExp;
+    bytes: number;
+  }[],
   json: 1 * MB,
   form: 256 * KB,
   other: 256 * KB,
