@@ -81,11 +81,19 @@ describe("the Workbench", () => {
     await saveDraft(db, guideId, author, { ...content, title: "Fog lamps on the front bumper", version: 1 });
     const submitted = await submitRevision(db, guideId, author, "First revision");
     expect(plainText(await (await client.get("/workbench")).text())).toContain("In review with the editors");
+    // The frozen revision offers nothing to edit.
+    expect(plainText(await (await client.get(editorPath)).text())).toContain("cannot be edited while they review it");
 
     await requestChanges(db, submitted.revisionId, editor, { note: "Give the relay's terminal numbers in step 3." });
     const returned = plainText(await (await client.get("/workbench")).text());
     expect(returned).toContain("Changes requested");
     expect(returned).toContain("Give the relay's terminal numbers in step 3.");
+    // The fresh draft opens in the editor with the note; another author may not open it.
+    const reopened = plainText(await (await client.get(editorPath)).text());
+    expect(reopened).toContain("The editor asked for changes");
+    const other = app.client();
+    expect((await other.signIn("author2@torqueleaf.test", "torqueleaf-demo")).status).toBe(302);
+    expect((await other.get(editorPath)).status).toBe(403);
   });
 
   it("starts a new revision of a published guide while the published one stays live", async () => {

@@ -156,7 +156,10 @@ export function useAutosave({
     latest.current = draft;
     dirty.current = true;
     void set(keyFor(guideId), { draft, baseVersion: version.current, keptAt: new Date().toISOString() }).catch(() => undefined);
-    if (stateRef.current.kind === "invalid" || stateRef.current.kind === "retrying") setState({ kind: "saving" });
+    // A change not yet on the server never reads as saved.
+    if (stateRef.current.kind !== "conflict" && stateRef.current.kind !== "frozen" && stateRef.current.kind !== "offline") {
+      setState({ kind: "saving" });
+    }
     schedule(QUIET_MS);
   }, [draft, editable, guideId, schedule]);
 
