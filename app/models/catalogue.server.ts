@@ -113,3 +113,31 @@ export async function variantsWithNames(db: Db) {
 export function yearsLabel(first: number, last: number | null) {
   return last ? `${first}–${last}` : `${first}–`;
 }
+
+/** The catalogue as `GET /api/catalogue` and the guide editor's fitment matrix show it. */
+export function publicCatalogue(makes: CatalogueTree) {
+  return makes.map((make) => ({
+    slug: make.slug,
+    name: make.name,
+    models: make.models.map((model) => ({
+      slug: model.slug,
+      name: model.name,
+      bodyStyle: model.bodyStyle,
+      generations: model.generations.map((g) => ({
+        slug: g.slug,
+        name: g.name,
+        firstYear: g.firstYear,
+        lastYear: g.lastYear,
+        variants: g.variants.map((v) => ({
+          id: v.id,
+          key: v.key,
+          name: v.name,
+          powertrain: v.powertrain,
+          drivetrain: v.drivetrain,
+          batteryLocation: v.batteryLocation,
+          batteryRunM: v.batteryRunM,
+        })),
+      })),
+    })),
+  }));
+}

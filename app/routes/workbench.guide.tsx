@@ -22,6 +22,7 @@ import { EditorSafetyNotice } from "~/components/editor/safety-notice";
 import { getDb } from "~/db/client.server";
 import { calloutSchema } from "~/engine/callouts";
 import { type Finding, runSafetyRules } from "~/engine/rules";
+import { publicCatalogue } from "~/models/catalogue.server";
 import { readDraft } from "~/models/drafts.server";
 import { readCatalogue } from "~/models/reader-cache.server";
 import { requireUser } from "~/services/auth/guards.server";
@@ -42,30 +43,7 @@ export async function loader(args: Route.LoaderArgs) {
     const db = await getDb();
     const view = await readDraft(db, user, Number.isSafeInteger(guideId) && guideId > 0 ? guideId : -1);
     const makes = await readCatalogue(db);
-    const catalogue = makes.map((make) => ({
-      slug: make.slug,
-      name: make.name,
-      models: make.models.map((model) => ({
-        slug: model.slug,
-        name: model.name,
-        bodyStyle: model.bodyStyle,
-        generations: model.generations.map((g) => ({
-          slug: g.slug,
-          name: g.name,
-          firstYear: g.firstYear,
-          lastYear: g.lastYear,
-          variants: g.variants.map((v) => ({
-            id: v.id,
-            key: v.key,
-            name: v.name,
-            powertrain: v.powertrain,
-            drivetrain: v.drivetrain,
-            batteryLocation: v.batteryLocation,
-            batteryRunM: v.batteryRunM,
-          })),
-        })),
-      })),
-    }));
+    const catalogue = publicCatalogue(makes);
     return { view, catalogue, mine: view.guide.authorId === user.id };
   });
 }

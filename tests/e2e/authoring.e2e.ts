@@ -79,7 +79,7 @@ it("an author writes a guide, loses the network, gets the kept edits back, settl
   await tab2.close();
 
   await page.goto(`${editorUrl}/preview`);
-  const preview = await page.locator("main, article").first().innerText();
+  const preview = (await page.locator("main, article").first().textContent()) ?? "";
   expect(preview).toContain("Fog lamps behind the lower grille");
   expect(preview).toContain("Two fog lamps, a relay and a switch in the dash.");
   expect(preview).toContain("Run the harness through the grommet");
