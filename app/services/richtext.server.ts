@@ -1,6 +1,7 @@
 import { getSchema, type JSONContent } from "@tiptap/core";
 import { Node as PMNode } from "@tiptap/pm/model";
 import { renderToHTMLString } from "@tiptap/static-renderer/pm/html-string";
+import { BoundedCache } from "~/utils/bounded-cache";
 import { AppError } from "~/utils/errors";
 import { ALLOWED_LINK, stepBodyExtensions } from "~/utils/rich-text";
 
@@ -157,8 +158,26 @@ function checkShape(content: unknown) {
  * when a draft is saved, so the reader's page serves stored HTML. Content that does not fit the
  * schema is refused with a 400 that says why.
  */
-export function renderBody(content: unknown): { html: string; text: string; json: JSONContent } {
+type RenderedBody = { html: string; text: string; json: JSONContent };
+
+/**
+ * Bodies already rendered, by their JSON: an autosave sends every step each time, and most steps
+ * have not changed since the last save. About 8 MB of text at most; callers must not change what
+ * they are given.
+ */
+const renderedBodies = new BoundedCache<string, RenderedBody>(8 * 1024 * 1024, (r) => 3 * r.html.length + r.text.length);
+
+export function renderBody(content: unknown): RenderedBody {
   checkShape(content);
+  const key = JSON.stringify(content);
+  const known = renderedBodies.get(key);
+  if (known) return known;
+  const rendered = renderChecked(content);
+  renderedBodies.set(key, rendered);
+  return rendered;
+}
+
+function renderChecked(content: unknown): RenderedBody {
   let node: PMNode;
   try {
     node = PMNode.fromJSON(schema, content as JSONContent);
