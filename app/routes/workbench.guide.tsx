@@ -14,7 +14,7 @@ import { forgetKept, type KeptDraft, readKept, type SaveState, useAutosave } fro
 import { StepPhotos } from "~/components/authoring/photo-uploads";
 import { StepBodyEditor } from "~/components/authoring/step-body-editor";
 import { CalloutListEditor } from "~/components/editor/callout-editor";
-import { focusField } from "~/components/editor/field-paths";
+import { fieldId, focusField } from "~/components/editor/field-paths";
 import { FindingsPanel } from "~/components/editor/findings-panel";
 import { FitmentMatrixEditor } from "~/components/editor/fitment-matrix";
 import { PartsEditor, ToolsEditor } from "~/components/editor/parts-tools";
@@ -54,41 +54,18 @@ const input = "mt-1.5 min-h-11 w-full rounded-md border bg-paper px-3 py-2";
 const smallButton =
   "inline-flex min-h-11 min-w-11 items-center justify-center rounded-md border border-rule bg-white px-3 text-sm font-semibold text-spruce-800 hover:bg-paper-deep disabled:opacity-40";
 
-/** Path → DOM id, as every field of the editor names itself. */
-export const domId = (path: string) => `field-${path.replaceAll(".", "-")}`;
-
+/** The field a message names, or the section it belongs to when that field is not on screen. */
 function jumpTo(path: string) {
   if (focusField(path)) return;
-  const parts = path.split(".");
-  // The most precise element there is, falling back to the step or section it sits in.
-  for (let n = parts.length; n > 0; n--) {
-    const el =
-      document.getElementById(domId(parts.slice(0, n).join("."))) ??
-      (parts[0] === "steps" && n === 2 ? document.getElementById(`editor-step-${Number(parts[1]) + 1}`) : null);
-    if (el) {
-      el.scrollIntoView({ block: "center", behavior: "smooth" });
-      (el.matches("input, select, textarea, button, [contenteditable]")
-        ? el
-        : el.querySelector<HTMLElement>("input, select, textarea, [contenteditable]")
-      )?.focus({
-        preventScroll: true,
-      });
-      return;
-    }
-  }
-  document.getElementById(`section-${parts[0]}`)?.scrollIntoView({ block: "start" });
+  document.getElementById(`section-${path.split(".")[0]}`)?.scrollIntoView({ block: "start" });
 }
 
-function SaveStatus({ state, dirtyLocal }: { state: SaveState; dirtyLocal: boolean }) {
+function SaveStatus({ state }: { state: SaveState }) {
   const [text, tone] = ((): [string, string] => {
     switch (state.kind) {
       case "saved":
         return [
-          state.at
-            ? `saved ${formatDateTime(state.at).split(", ").at(-1)?.replace(" UTC", "")}`
-            : dirtyLocal
-              ? "not saved yet"
-              : "all saved",
+          state.at ? `saved ${formatDateTime(state.at).split(", ").at(-1)?.replace(" UTC", "")}` : "all saved",
           "bg-spruce-50 text-spruce-900",
         ];
       case "saving":
@@ -287,7 +264,7 @@ function StepCard({
   const titleError = errors[`${path}.title`];
   const photos = useCallback((update: (photos: EditorPhoto[]) => EditorPhoto[]) => onPhotos(index, update), [index, onPhotos]);
   return (
-    <li id={`editor-step-${index + 1}`} className="scroll-mt-24 rounded-xl border border-rule bg-white p-4 shadow-sm sm:p-5">
+    <li id={fieldId(path)} tabIndex={-1} className="scroll-mt-24 rounded-xl border border-rule bg-white p-4 shadow-sm sm:p-5">
       <div className="flex flex-wrap items-center justify-between gap-2">
         <h3 className="font-mono text-base font-semibold text-brass-700">Step {index + 1}</h3>
         <fieldset className="flex flex-wrap gap-1">
@@ -327,11 +304,11 @@ function StepCard({
           </button>
         </fieldset>
       </div>
-      <label htmlFor={domId(`${path}.title`)} className="mt-3 block text-sm font-semibold">
+      <label htmlFor={fieldId(`${path}.title`)} className="mt-3 block text-sm font-semibold">
         Step title
       </label>
       <input
-        id={domId(`${path}.title`)}
+        id={fieldId(`${path}.title`)}
         value={step.title}
         maxLength={160}
         onChange={(e) => onChange(index, { title: e.target.value })}
@@ -341,22 +318,22 @@ function StepCard({
             const to = index + (e.key === "ArrowUp" ? -1 : 1);
             if (to >= 0 && to < count) {
               onMove(index, to);
-              requestAnimationFrame(() => document.getElementById(domId(`steps.${to}.title`))?.focus());
+              requestAnimationFrame(() => document.getElementById(fieldId(`steps.${to}.title`))?.focus());
             }
           }
         }}
         aria-invalid={titleError ? true : undefined}
-        aria-describedby={titleError ? `${domId(`${path}.title`)}-error` : undefined}
+        aria-describedby={titleError ? `${fieldId(`${path}.title`)}-error` : undefined}
         className={`${input} ${titleError ? "border-z-danger" : "border-rule"}`}
       />
       {titleError ? (
-        <p id={`${domId(`${path}.title`)}-error`} className="mt-1 text-sm font-medium text-z-danger">
+        <p id={`${fieldId(`${path}.title`)}-error`} className="mt-1 text-sm font-medium text-z-danger">
           {titleError}
         </p>
       ) : null}
       <p className="mt-4 mb-1.5 text-sm font-semibold">What to do</p>
       <StepBodyEditor
-        id={domId(`${path}.body`)}
+        id={fieldId(`${path}.body`)}
         label={`Step ${index + 1} text`}
         value={step.body}
         onChange={(body) => onChange(index, { body })}
@@ -485,7 +462,7 @@ export default function GuideEditor({ loaderData }: Route.ComponentProps) {
           <h1 className="truncate font-serif text-2xl font-semibold text-spruce-900">{draft.title || "Untitled guide"}</h1>
         </div>
         <div className="flex flex-wrap items-center gap-2">
-          <SaveStatus state={autosave.state} dirtyLocal={false} />
+          <SaveStatus state={autosave.state} />
           <Link to={`/workbench/guides/${guideId}/preview`} target="_blank" rel="noopener" className={smallButton}>
             Preview
           </Link>
@@ -697,7 +674,7 @@ export default function GuideEditor({ loaderData }: Route.ComponentProps) {
               className="mt-4 min-h-11 rounded-md border-2 border-dashed border-spruce-600 px-4 py-2 font-semibold text-spruce-800 hover:bg-spruce-50"
               onClick={() => {
                 change((d) => addStep(d));
-                requestAnimationFrame(() => document.getElementById(domId(`steps.${draft.steps.length}.title`))?.focus());
+                requestAnimationFrame(() => document.getElementById(fieldId(`steps.${draft.steps.length}.title`))?.focus());
               }}
             >
               Add a step

@@ -1,3 +1,5 @@
+import { moveItem } from "~/components/editor/list-state";
+
 /**
  * The editor's working copy of a draft and the pure changes made to it. Shapes follow the API
  * (`PUT /api/guides/:id/draft`); photos also carry what the editor needs to show them.
@@ -40,15 +42,6 @@ export function newStep(): EditorStep {
   return { title: "", body: EMPTY_BODY, liftsVehicle: false, disconnectsBattery: false, photos: [], callouts: [] };
 }
 
-/** Moves one item from `from` to `to`, leaving the list as it was when either is out of range. */
-export function moveItem<T>(list: readonly T[], from: number, to: number): T[] {
-  if (from < 0 || from >= list.length || to < 0 || to >= list.length || from === to) return [...list];
-  const next = [...list];
-  const [item] = next.splice(from, 1);
-  next.splice(to, 0, item);
-  return next;
-}
-
 /**
  * Where a step went after a move, removal or insertion, for the parts that point at steps: a
  * part keeps pointing at the step it was for, and loses its step when that one is removed.
@@ -87,7 +80,7 @@ export function moveStep(draft: EditorDraft, from: number, to: number): EditorDr
   const order = moveItem(
     draft.steps.map((_, i) => i),
     from,
-    to,
+    to - from,
   );
   const where = new Map(order.map((old, now) => [old, now]));
   return { ...draft, steps: order.map((i) => draft.steps[i]), parts: remapParts(draft.parts, (i) => where.get(i) ?? null) };

@@ -1,4 +1,6 @@
 import { useCallback, useEffect, useRef, useState } from "react";
+import { fieldId } from "~/components/editor/field-paths";
+import { moveItem } from "~/components/editor/list-state";
 import type { EditorPhoto, PhotoVariant } from "./draft-state";
 
 type Uploaded = { id: number; width: number; height: number; variants: PhotoVariant[] };
@@ -64,7 +66,7 @@ export function StepPhotos({
   const input = useRef<HTMLInputElement>(null);
   const uploadsRef = useRef(uploads);
   uploadsRef.current = uploads;
-  const domId = `field-${path.replaceAll(".", "-")}`;
+  const domId = fieldId(path);
 
   const patch = useCallback(
     (key: number, change: Partial<Upload>) => setUploads((list) => list.map((u) => (u.key === key ? { ...u, ...change } : u))),
@@ -106,14 +108,7 @@ export function StepPhotos({
   };
 
   const thumb = (p: EditorPhoto) => p.variants?.find((v) => v.format === "jpeg")?.url ?? p.variants?.[0]?.url;
-  const move = (from: number, to: number) =>
-    onChange((list) => {
-      if (to < 0 || to >= list.length) return list;
-      const next = [...list];
-      const [item] = next.splice(from, 1);
-      next.splice(to, 0, item);
-      return next;
-    });
+  const move = (from: number, to: number) => onChange((list) => moveItem(list, from, to - from));
 
   return (
     <div className="mt-4">
