@@ -13,6 +13,8 @@ import {
   FINDING_STATUSES,
   FITMENT_STATUSES,
   GUIDE_STATES,
+  MAIL_KINDS,
+  OUTBOX_STATES,
   POWERTRAINS,
   REVIEW_DECISIONS,
   REVISION_STATES,
@@ -174,6 +176,8 @@ export const variants = sqliteTable(
     drivetrain: text({ enum: DRIVETRAINS }).notNull(),
     batteryLocation: text({ enum: BATTERY_LOCATIONS }).notNull(),
     batteryRunM: real().notNull(),
+    /** A retired variant stays for the guides whose fitment names it, but is offered for no new fitment. */
+    retiredAt: integer({ mode: "timestamp_ms" }),
   },
   (t) => [index("variants_generation").on(t.generationId)],
 );
@@ -208,6 +212,9 @@ export const guides = sqliteTable(
     publishedRevisionId: integer(),
     workingRevisionId: integer(),
     publishedAt: integer({ mode: "timestamp_ms" }),
+    /** Set when an editor takes the guide out of the Library; its page answers 410 with this reason. */
+    unpublishedReason: text(),
+    unpublishedAt: integer({ mode: "timestamp_ms" }),
     createdAt: createdAt(),
     updatedAt: updatedAt(),
   },
@@ -422,8 +429,71 @@ export const cautionSignoffs = sqliteTable("caution_signoffs", {
   editorId: integer()
     .notNull()
     .references(() => users.id),
+  /** The signal word and text the editor accepted ("DANGER: …"): a sign-off is for that exact wording. */
+  wording: text(),
   createdAt: createdAt(),
 });
+
+/** An editor's comment on a revision under review, pinned to a step (or to the whole guide when null). */
+export const reviewComments = sqliteTable(
+  "review_comments",
+  {
+    id: id(),
+    revisionId: integer()
+      .notNull()
+      .references(() => revisions.id, { onDelete: "cascade" }),
+    stepIndex: integer(),
+    editorId: integer()
+      .notNull()
+      .references(() => users.id),
+    body: text().notNull(),
+    createdAt: createdAt(),
+  },
+  (t) => [index("review_comments_revision").on(t.revisionId)],
+);
+
+// ── Mail ───────────────────────────────────────────────────────────
+
+/**
+ * Durable outbox: a mail is written in the same transaction as the change it reports and sent later
+ * by the worker, with retries and backoff. `to`, `subject`, `text` and `html` are rendered when the
+ * row is written; the worker adds nothing but the transport.
+ */
+export const outbox = sqliteTable(
+  "outbox",
+  {
+    id: id(),
+    kind: text({ enum: MAIL_KINDS }).notNull(),
+    /** The recipient's account, when the mail is for one (their opt-outs apply at send time). */
+    userId: integer().references(() => users.id, { onDelete: "set null" }),
+    to: text().notNull(),
+    subject: text().notNull(),
+    text: text().notNull(),
+    html: text().notNull(),
+    state: text({ enum: OUTBOX_STATES }).notNull().default("pending"),
+    attempts: integer().notNull().default(0),
+    nextAttemptAt: integer({ mode: "timestamp_ms" }).notNull().default(sql`(unixepoch('subsec') * 1000)`),
+    /** A worker that claims a row holds it until then; a crashed worker's claim simply runs out. */
+    claimedUntil: integer({ mode: "timestamp_ms" }),
+    lastError: text(),
+    sentAt: integer({ mode: "timestamp_ms" }),
+    createdAt: createdAt(),
+  },
+  (t) => [index("outbox_due").on(t.state, t.nextAttemptAt)],
+);
+
+/** A kind of mail a user has turned off (account mail cannot be). */
+export const mailOptOuts = sqliteTable(
+  "mail_opt_outs",
+  {
+    userId: integer()
+      .notNull()
+      .references(() => users.id, { onDelete: "cascade" }),
+    kind: text({ enum: MAIL_KINDS }).notNull(),
+    createdAt: createdAt(),
+  },
+  (t) => [uniqueIndex("mail_opt_outs_user_kind").on(t.userId, t.kind)],
+);
 
 // ── Readers ────────────────────────────────────────────────────────
 
@@ -527,9 +597,16 @@ export const auditLog = sqliteTable(
     subjectId: text().notNull(),
     reason: text(),
     data: text({ mode: "json" }).$type<Record<string, unknown>>(),
+    /** The guide the entry concerns, when it concerns one: the guide's own history and the site filter use it. */
+    guideId: integer().references(() => guides.id, { onDelete: "set null" }),
     createdAt: createdAt(),
   },
-  (t) => [index("audit_subject").on(t.subjectType, t.subjectId), index("audit_created").on(t.createdAt)],
+  (t) => [
+    index("audit_subject").on(t.subjectType, t.subjectId),
+    index("audit_created").on(t.createdAt),
+    index("audit_guide").on(t.guideId, t.createdAt),
+    index("audit_actor").on(t.actorId, t.createdAt),
+  ],
 );
 
 // ── Relations (for the query builder) ──────────────────────────────

@@ -8,6 +8,8 @@ export type AuditEntry = {
   subjectId: string | number;
   reason?: string | null;
   data?: Record<string, unknown>;
+  /** The guide the entry concerns, so it shows in that guide's history and the site log's guide filter. */
+  guideId?: number | null;
 };
 
 /** The audit insert as a query, so it can join a batch with the change it records. */

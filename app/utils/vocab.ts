@@ -34,6 +34,22 @@ export type TokenKind = (typeof TOKEN_KINDS)[number];
 export const REVIEW_DECISIONS = ["request-changes", "approve", "unpublish"] as const;
 export type ReviewDecision = (typeof REVIEW_DECISIONS)[number];
 /** The engine's finding severities, as stored with a submitted revision. */
+/**
+ * Mail that goes through the outbox. `account` mail (confirm address, reset password …) cannot be
+ * turned off; each of the others can, per user, in account settings and through its one-click link.
+ */
+export const MAIL_KINDS = [
+  "account",
+  "revision-submitted",
+  "changes-requested",
+  "guide-published",
+  "guide-unpublished",
+  "fitment-report",
+] as const;
+export type MailKind = (typeof MAIL_KINDS)[number];
+export const OUTBOX_STATES = ["pending", "sent", "skipped", "failed"] as const;
+export type OutboxState = (typeof OUTBOX_STATES)[number];
+
 export const FINDING_SEVERITIES = ["blocking", "warning", "info"] as const;
 export const FINDING_STATUSES = ["open", "acknowledged"] as const;
 export type FindingStatus = (typeof FINDING_STATUSES)[number];
