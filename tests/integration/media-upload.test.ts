@@ -1,3 +1,4 @@
+import { readFile } from "node:fs/promises";
 import { eq, inArray } from "drizzle-orm";
 import exifr from "exifr";
 import sharp, { type Sharp } from "sharp";
@@ -183,10 +184,27 @@ describe("POST /api/media", () => {
     }
   });
 
-  it.skip("accepts a HEIC photo from a phone (no fixture: no npm package encodes HEIC)", () => {
-    // Not faked: heic-decode and libheif-js (the npm builds of libheif) only decode, and sharp's
-    // prebuilt libvips writes HEIF with AV1 (AVIF) only, not the HEVC a phone writes. A small HEIC
-    // fixture made for the project with an HEVC encoder would let this case run.
+  it("accepts a HEIC photo from a phone and stores it upright as WebP and JPEG", async () => {
+    // tests/fixtures/README.md: HEVC-in-HEIF (brand "heic") made with Debian's heif-enc, a red block
+    // in the top-left corner of a blue 640 × 480 picture.
+    const heic = await readFile(new URL("../fixtures/marked-corner-640x480.heic", import.meta.url));
+    expect(heic.subarray(4, 12).toString("latin1")).toBe("ftypheic");
+    const { status, body } = await upload(author, heic, "IMG_0001.HEIC", "image/heic");
+    expect(status).toBe(201);
+    expect([body.width, body.height]).toEqual([640, 480]);
+    expect(new Set(body.variants.map((v) => v.format))).toEqual(new Set(["webp", "jpeg"]));
+    for (const variant of body.variants) {
+      const { bytes, contentType } = await stored(variant.url);
+      expect(contentType).toBe(`image/${variant.format}`);
+      const { data, info } = await sharp(bytes).raw().toBuffer({ resolveWithObject: true });
+      expect(info.width).toBeLessThanOrEqual(640);
+      const at = (x: number, y: number) => data[(y * info.width + x) * info.channels];
+      const px = (x: number, y: number) => ({ r: at(x, y), b: data[(y * info.width + x) * info.channels + 2] });
+      const scale = info.width / 640;
+      expect(px(Math.round(20 * scale), Math.round(20 * scale)).r, variant.url).toBeGreaterThan(180);
+      expect(px(info.width - 10, info.height - 10).b, variant.url).toBeGreaterThan(150);
+      expect(px(info.width - 10, info.height - 10).r, variant.url).toBeLessThan(90);
+    }
   });
 
   it("refuses a photo that decodes to more than 40 megapixels with 413, however small the file", async () => {
