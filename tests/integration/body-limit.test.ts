@@ -117,4 +117,31 @@ describe("request bodies are limited before the app parses them", () => {
     const answer = await streamed("/login", { ...form, "transfer-encoding": "chunked" }, [body.slice(0, 9), body.slice(9)]);
     expect(answer.status).toBe(302);
   });
+
+  it("passes a photo upload to the app as it streams: the answer comes before the body ends", async () => {
+    const boundary = "torqueleaf-test-boundary";
+    const head = `--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="a.jpg"\r\nContent-Type: image/jpeg\r\n\r\n`;
+    const url = new URL("/api/media", app.origin);
+    const status = await new Promise<number>((resolve, reject) => {
+      const req = httpRequest(url, {
+        method: "POST",
+        headers: {
+          "content-type": `multipart/form-data; boundary=${boundary}`,
+          "transfer-encoding": "chunked",
+          origin: app.origin,
+        },
+      });
+      req.on("response", (res) => {
+        resolve(res.statusCode ?? 0);
+        req.destroy();
+      });
+      req.on("error", (error) => (req.destroyed ? undefined : reject(error)));
+      // The first 64 KB of a larger photo, and then nothing: a middleware that held the whole body
+      // would never let the app answer.
+      req.write(head + "x".repeat(64 * 1024));
+      setTimeout(() => reject(new Error("no answer while the body was still open")), 5_000).unref();
+    });
+    // Not signed in: the app refuses at once (401), without waiting for the rest of the upload.
+    expect(status).toBe(401);
+  });
 });

@@ -8,10 +8,16 @@ const MB = 1024 * KB;
  * row whose method and path match wins; otherwise the body's type decides.
  */
 export const BODY_LIMITS = {
-  paths: [{ method: "POST", path: /^\/api\/media\/?$/, bytes: 25 * MB + 64 * KB }] as {
+  /**
+   * `streams`: the route reads its body as it arrives with its own limits (busboy: one file, a few
+   * parts, a byte cap), so it is passed through without being held here; only a declared length
+   * over the limit is refused up front.
+   */
+  paths: [{ method: "POST", path: /^\/api\/media\/?$/, bytes: 25 * MB + 64 * KB, streams: true }] as {
     method: string;
     path: RegExp;
     bytes: number;
+    streams?: boolean;
   }[],
   json: 1 * MB,
   form: 256 * KB,
@@ -20,7 +26,7 @@ export const BODY_LIMITS = {
   fields: 1_000,
 };
 
-type Limit = { bytes: number; countFields?: (chunk: Buffer) => number };
+type Limit = { bytes: number; countFields?: (chunk: Buffer) => number; streams?: boolean };
 type Refusal = { status: 413; code: "too-large" | "too-many-fields"; message: string };
 
 const size = (bytes: number) => (bytes >= MB ? `${bytes / MB} MB` : `${bytes / KB} KB`);
@@ -53,12 +59,17 @@ function fieldCounter(type: string): ((chunk: Buffer) => number) | undefined {
   };
 }
 
+/** Whether the route reads its body as a stream with its own limits (see `BODY_LIMITS.paths`). */
+export function streamsBody(method: string, path: string): boolean {
+  return BODY_LIMITS.paths.some((r) => r.streams && r.method === method && r.path.test(path));
+}
+
 export function bodyLimitFor(method: string, path: string, type: string): Limit {
   const row = BODY_LIMITS.paths.find((r) => r.method === method && r.path.test(path));
   const countFields = fieldCounter(type);
   const bytes =
     row?.bytes ?? (type.startsWith("application/json") ? BODY_LIMITS.json : countFields ? BODY_LIMITS.form : BODY_LIMITS.other);
-  return { bytes, countFields };
+  return { bytes, countFields: row?.streams ? undefined : countFields, streams: row?.streams };
 }
 
 /**
@@ -142,7 +153,7 @@ export function bodyLimit() {
     };
     if (!chunked && Number(declared) > limit.bytes) return refuse(req, res, path, tooLarge);
     // Node's parser never reads past a declared length, so only forms (fields) and chunked bodies need counting.
-    if (!chunked && !limit.countFields) return next();
+    if (limit.streams || (!chunked && !limit.countFields)) return next();
     readWithin(req, limit, tooLarge).then((outcome) => {
       if (outcome === "ok") next();
       else if (outcome !== "gone") refuse(req, res, path, outcome);

@@ -1,6 +1,7 @@
 import type { IncomingMessage, ServerResponse } from "node:http";
 import { data, type MiddlewareFunction } from "react-router";
 import { apiError } from "~/utils/http.server";
+import { streamsBody } from "./body-limit.server";
 
 /**
  * What a request must look like before any action reads it, checked once for every route so that
@@ -82,6 +83,8 @@ async function apiProblem(request: Request): Promise<Problem | null> {
     };
   }
   if (type === "multipart/form-data") {
+    // An upload route parses its own stream (4xx for a bad one); reading it here would hold it all.
+    if (streamsBody(request.method.toUpperCase(), new URL(request.url).pathname)) return null;
     if (await readsAsForm(request)) return null;
     return { status: 400, code: "malformed-form", message: "The multipart body could not be read: check its boundary." };
   }
