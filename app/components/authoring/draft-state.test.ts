@@ -1,4 +1,5 @@
 import fc from "fast-check";
+import { calloutSchema } from "~/engine/callouts";
 import { describe, expect, it } from "vitest";
 import {
   addStep,
@@ -92,6 +93,20 @@ describe("conflicts", () => {
     const theirs = structuredClone(mine);
     theirs.steps[0].photos[0].variants = [{ width: 480, format: "webp", url: "/media/x" }];
     expect(differingFields(mine, theirs)).toEqual([]);
+  });
+
+  it("sees a callout the server gave back in its own key order, or with a null for an absent field, as the same", () => {
+    const mine = draft(["a"]);
+    mine.steps[0].callouts = [{ kind: "torque", fastener: "Bracket bolt", unit: "N·m", value: 22 }];
+    const theirs = structuredClone(mine);
+    theirs.steps[0].callouts = [{ value: 22, unit: "N·m", kind: "torque", fastener: "Bracket bolt", threadlocker: null }];
+    expect(differingFields(mine, theirs)).toEqual([]);
+    // A circuit as typed against the same circuit with the defaults the schema adds (engine/callouts.ts).
+    mine.steps[0].callouts.push({ kind: "circuit", feed: "battery", loadWatts: 110, oneWayLengthM: 3 });
+    theirs.steps[0].callouts.push(calloutSchema.parse(mine.steps[0].callouts[1]));
+    expect(differingFields(mine, theirs)).toEqual([]);
+    theirs.steps[0].callouts[0] = { value: 24, unit: "N·m", kind: "torque", fastener: "Bracket bolt" };
+    expect(differingFields(mine, theirs)).toEqual([{ key: "step", index: 0 }]);
   });
 
   it("reads a document's text for the side-by-side view", () => {

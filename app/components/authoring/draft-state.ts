@@ -1,3 +1,4 @@
+import { calloutSchema } from "~/engine/callouts";
 import { moveItem } from "~/components/editor/list-state";
 
 /**
@@ -113,9 +114,32 @@ export type ConflictChoice = "mine" | "theirs";
 
 export const fieldId = (f: ConflictField) => (f.key === "step" ? `step-${f.index}` : f.key);
 
-/** A comparable form of a value: photos are compared by their id, alt and caption only. */
+/**
+ * A comparable form of a value: keys in order, an absent field and a null one alike (the server
+ * gives back what it stored in its own key order), photos by their id, alt and caption only.
+ */
 function comparable(value: unknown): string {
-  return JSON.stringify(value, (key, v) => (key === "variants" ? undefined : v));
+  return canonical(value);
+}
+
+/** A step as the server keeps it: each callout that parses, with the defaults its schema fills in. */
+function comparableStep(step: EditorStep | undefined): string {
+  if (!step) return canonical(step);
+  return canonical({
+    ...step,
+    callouts: step.callouts.map((c) => {
+      const parsed = calloutSchema.safeParse(c);
+      return parsed.success ? parsed.data : c;
+    }),
+  });
+}
+
+function canonical(value: unknown): string {
+  return JSON.stringify(value, (key, v) => {
+    if (key === "variants" || v === null) return undefined;
+    if (typeof v !== "object" || Array.isArray(v)) return v;
+    return Object.fromEntries(Object.entries(v as Record<string, unknown>).sort(([a], [b]) => (a < b ? -1 : a > b ? 1 : 0)));
+  });
 }
 
 /** The fields where two drafts differ, in the order the editor shows them. */
@@ -126,7 +150,7 @@ export function differingFields(mine: EditorDraft, theirs: EditorDraft): Conflic
   }
   const steps = Math.max(mine.steps.length, theirs.steps.length);
   for (let index = 0; index < steps; index++) {
-    if (comparable(mine.steps[index]) !== comparable(theirs.steps[index])) out.push({ key: "step", index });
+    if (comparableStep(mine.steps[index]) !== comparableStep(theirs.steps[index])) out.push({ key: "step", index });
   }
   for (const key of ["fitment", "parts", "tools"] as const) {
     if (comparable(mine[key]) !== comparable(theirs[key])) out.push({ key });
