@@ -138,7 +138,10 @@ it("an author writes a guide, loses the network, gets the kept edits back, settl
   const refusal = page.locator("#section-submit [role=alert]");
   await refusal.waitFor({ timeout: 10_000 });
   expect(await refusal.textContent()).toMatch(/fitment/i);
-  await refusal.getByRole("button", { name: /fitment/i }).first().click();
+  await refusal
+    .getByRole("button", { name: /fitment/i })
+    .first()
+    .click();
   expect(await page.evaluate(() => document.activeElement?.closest("[id^=field-fitment]")?.id)).toMatch(/^field-fitment/);
   await page.selectOption("#field-fitment-pick-make", { index: 1 });
   await page.selectOption("#field-fitment-pick-model", { index: 1 });
