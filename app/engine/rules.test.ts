@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { calloutSchema, type Callout } from "./callouts";
-import { cautionUnsignedFindings, runSafetyRules, type Powertrain, type RevisionStep } from "./rules";
+import { cautionUnsignedFindings, fittingPowertrains, runSafetyRules, type Powertrain, type RevisionStep } from "./rules";
 
 const callout = (raw: unknown): Callout => calloutSchema.parse(raw);
 const step = (over: Partial<RevisionStep> = {}): RevisionStep => ({
@@ -129,5 +129,20 @@ describe("caution-unsigned", () => {
 
   it("is silent when all are signed", () => {
     expect(cautionUnsignedFindings([{ signedOff: true, stepIndex: 0 }])).toEqual([]);
+  });
+});
+
+describe("fittingPowertrains", () => {
+  it("takes each fitting variant's powertrain once, leaves out does-not-fit and unknown variants", () => {
+    // engine.md §3: the high-voltage rule looks at the variants a guide is said to fit.
+    expect(
+      fittingPowertrains([
+        { status: "fits", powertrain: "gas" },
+        { status: "fits-with-changes", powertrain: "hybrid" },
+        { status: "fits", powertrain: "gas" },
+        { status: "does-not-fit", powertrain: "electric" },
+        { status: "fits", powertrain: undefined },
+      ]),
+    ).toEqual(["gas", "hybrid"]);
   });
 });

@@ -34,6 +34,14 @@ export type RevisionStep = {
  */
 export type RevisionForRules = { steps: RevisionStep[]; fitmentPowertrains: Powertrain[] };
 
+/**
+ * The powertrains a guide's fitment brings in, for the high-voltage rule: every variant marked as
+ * fitting (with or without changes), each powertrain once. Rows whose powertrain is unknown are skipped.
+ */
+export function fittingPowertrains(rows: { status: string; powertrain: Powertrain | undefined }[]): Powertrain[] {
+  return [...new Set(rows.filter((r) => r.status !== "does-not-fit").flatMap((r) => (r.powertrain ? [r.powertrain] : [])))];
+}
+
 /** Words an author uses for the traction system; the rule needs only one of them. */
 export const HIGH_VOLTAGE_TEXT = /high[\s-]?voltage|\bHV\b|traction battery/i;
 /** "stand(s)" as a word, so "understand" does not count, or any form of "support". */

@@ -3,11 +3,10 @@ import { batch } from "~/db/batch.server";
 import type { Db } from "~/db/client.server";
 import { callouts, fitment, guides, media, parts, revisions, stepPhotos, steps, tools, variants } from "~/db/schema";
 import { type Callout, calloutRow, storedCallout } from "~/engine/callouts";
-import { runSafetyRules } from "~/engine/rules";
+import { fittingPowertrains, runSafetyRules } from "~/engine/rules";
 import { renderBody } from "~/services/richtext.server";
 import { AppError, fromDbError, notFound } from "~/utils/errors";
 import { type Actor, assertCan, canOn } from "~/utils/permissions";
-import type { Powertrain } from "~/utils/vocab";
 import { auditInsert } from "./audit.server";
 import type { DraftInput, GuideMetaInput } from "./guide-input";
 
@@ -113,9 +112,7 @@ export function rulesInput(loaded: Pick<LoadedRevision, "steps" | "fitment">) {
       disconnectsBattery: s.disconnectsBattery,
       callouts: s.callouts.map(storedCallout),
     })),
-    fitmentPowertrains: [
-      ...new Set(loaded.fitment.filter((f) => f.status !== "does-not-fit").map((f) => f.variant.powertrain)),
-    ] as Powertrain[],
+    fitmentPowertrains: fittingPowertrains(loaded.fitment.map((f) => ({ status: f.status, powertrain: f.variant.powertrain }))),
   };
 }
 
@@ -230,14 +227,9 @@ export async function saveDraft(db: Db, guideId: number, actor: Actor, input: Dr
 
   const findings = runSafetyRules({
     steps: input.steps,
-    fitmentPowertrains: [
-      ...new Set(
-        input.fitment
-          .filter((f) => f.status !== "does-not-fit")
-          .map((f) => knownVariants.find((v) => v.id === f.variantId)?.powertrain)
-          .filter((p): p is Powertrain => !!p),
-      ),
-    ],
+    fitmentPowertrains: fittingPowertrains(
+      input.fitment.map((f) => ({ status: f.status, powertrain: knownVariants.find((v) => v.id === f.variantId)?.powertrain })),
+    ),
   });
   return { version: input.version + 1, revisionId, findings };
 }

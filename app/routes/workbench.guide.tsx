@@ -21,14 +21,14 @@ import { PartsEditor, ToolsEditor } from "~/components/editor/parts-tools";
 import { EditorSafetyNotice } from "~/components/editor/safety-notice";
 import { getDb } from "~/db/client.server";
 import { calloutSchema } from "~/engine/callouts";
-import { type Finding, runSafetyRules } from "~/engine/rules";
+import { type Finding, fittingPowertrains, runSafetyRules } from "~/engine/rules";
 import { publicCatalogue } from "~/models/catalogue.server";
 import { readDraft } from "~/models/drafts.server";
 import { readCatalogue } from "~/models/reader-cache.server";
 import { requireUser } from "~/services/auth/guards.server";
 import { forPage } from "~/utils/http.server";
 import { formatDateTime } from "~/utils/format";
-import { CATEGORIES, CATEGORY_LABELS, DIFFICULTY_LABELS, type Powertrain } from "~/utils/vocab";
+import { CATEGORIES, CATEGORY_LABELS, DIFFICULTY_LABELS } from "~/utils/vocab";
 import type { Route } from "./+types/workbench.guide";
 
 export const meta: Route.MetaFunction = ({ data }) => [
@@ -114,14 +114,9 @@ function liveFindings(draft: EditorDraft, catalogue: Catalogue): Finding[] {
       return parsed.success ? parsed.data : { kind: "tip" as const, text: "" };
     }),
   }));
-  const fitmentPowertrains = [
-    ...new Set(
-      draft.fitment
-        .filter((f) => f.status !== "does-not-fit")
-        .map((f) => powertrains.get(f.variantId))
-        .filter((p): p is Powertrain => !!p),
-    ),
-  ];
+  const fitmentPowertrains = fittingPowertrains(
+    draft.fitment.map((f) => ({ status: f.status, powertrain: powertrains.get(f.variantId) })),
+  );
   try {
     return runSafetyRules({ steps, fitmentPowertrains });
   } catch {
