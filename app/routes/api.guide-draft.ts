@@ -1,12 +1,12 @@
 import { getDb } from "~/db/client.server";
 import { readDraft } from "~/models/drafts.server";
 import { draftInputSchema } from "~/models/guide-input";
-import { getGuideById, saveDraft } from "~/models/guides.server";
-import { AppError, notFound } from "~/utils/errors";
+import { saveDraft } from "~/models/guides.server";
+import { AppError } from "~/utils/errors";
 import { apiHandler, errorResponse } from "~/utils/http.server";
 import { assertCan } from "~/utils/permissions";
 import type { Route } from "./+types/api.guide-draft";
-import { apiUser, guideIdParam, methodNotAllowed, PRIVATE_JSON, readAuthoringJson } from "./authoring-api.server";
+import { apiGuide, apiUser, guideIdParam, methodNotAllowed, PRIVATE_JSON, readAuthoringJson } from "./authoring-api.server";
 
 /** The working revision for its author and the editors (design/api.md, `GET /api/guides/:id/draft`). */
 export const loader = apiHandler(async (args: Route.LoaderArgs) => {
@@ -22,12 +22,7 @@ export const loader = apiHandler(async (args: Route.LoaderArgs) => {
  */
 export const action = apiHandler(async (args: Route.ActionArgs) => {
   if (args.request.method !== "PUT") return methodNotAllowed(["GET", "PUT"], "A guide's draft");
-  const user = await apiUser(args);
-  const guideId = guideIdParam(args.params.id);
-  const db = await getDb();
-  // Who may save is settled before the body is read: a stranger learns nothing from field errors.
-  const guide = await getGuideById(db, guideId);
-  if (!guide) throw notFound("This guide");
+  const { user, db, guide, guideId } = await apiGuide(args);
   assertCan(user, "update:guide", guide);
   const input = await readAuthoringJson(args.request, draftInputSchema);
   try {

@@ -1,13 +1,11 @@
 import { z } from "zod";
-import { getDb } from "~/db/client.server";
 import { assertCanReadDraft } from "~/models/drafts.server";
 import { exportDraftJson, exportMarkdownZip } from "~/models/guide-export.server";
-import { getGuideById } from "~/models/guides.server";
 import { getStorage } from "~/services/storage.server";
-import { invalid, notFound } from "~/utils/errors";
+import { invalid } from "~/utils/errors";
 import { apiHandler } from "~/utils/http.server";
 import type { Route } from "./+types/api.guide-export";
-import { apiUser, guideIdParam, PRIVATE_JSON } from "./authoring-api.server";
+import { apiGuide, PRIVATE_JSON } from "./authoring-api.server";
 
 const querySchema = z.enum(["markdown", "json"], { error: 'Choose format "markdown" (a zip of guide.md and photos) or "json"' });
 
@@ -19,11 +17,7 @@ const attachment = (name: string) => `attachment; filename="${name.replace(/[^a-
  * `POST /api/guides/import` reads back, `?format=markdown` a zip of guide.md and its photos.
  */
 export const loader = apiHandler(async (args: Route.LoaderArgs) => {
-  const user = await apiUser(args);
-  const guideId = guideIdParam(args.params.id);
-  const db = await getDb();
-  const guide = await getGuideById(db, guideId);
-  if (!guide) throw notFound("This guide");
+  const { user, db, guide, guideId } = await apiGuide(args);
   assertCanReadDraft(user, guide);
   const format = querySchema.safeParse(new URL(args.request.url).searchParams.get("format") ?? "json");
   if (!format.success) throw invalid({ format: format.error.issues[0].message });

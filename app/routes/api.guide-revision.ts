@@ -1,13 +1,11 @@
 import { eq } from "drizzle-orm";
-import { getDb } from "~/db/client.server";
 import { revisions } from "~/db/schema";
-import { getGuideById } from "~/models/guides.server";
 import { startNextRevision } from "~/models/review.server";
 import { notFound } from "~/utils/errors";
 import { apiHandler } from "~/utils/http.server";
 import { assertCan } from "~/utils/permissions";
 import type { Route } from "./+types/api.guide-revision";
-import { apiUser, guideIdParam, methodNotAllowed, PRIVATE_JSON } from "./authoring-api.server";
+import { apiGuide, methodNotAllowed, PRIVATE_JSON } from "./authoring-api.server";
 
 export function loader() {
   return methodNotAllowed(["POST"], "Starting a revision");
@@ -19,11 +17,7 @@ export function loader() {
  */
 export const action = apiHandler(async (args: Route.ActionArgs) => {
   if (args.request.method !== "POST") return loader();
-  const user = await apiUser(args);
-  const guideId = guideIdParam(args.params.id);
-  const db = await getDb();
-  const guide = await getGuideById(db, guideId);
-  if (!guide) throw notFound("This guide");
+  const { user, db, guide, guideId } = await apiGuide(args);
   assertCan(user, "update:guide", guide);
   const revisionId = await startNextRevision(db, guideId, user);
   const [row] = revisionId

@@ -1,12 +1,9 @@
-import { getDb } from "~/db/client.server";
 import { submitInputSchema } from "~/models/guide-input";
-import { getGuideById } from "~/models/guides.server";
 import { submitRevision } from "~/models/review.server";
-import { notFound } from "~/utils/errors";
 import { apiHandler } from "~/utils/http.server";
 import { assertCan } from "~/utils/permissions";
 import type { Route } from "./+types/api.guide-submit";
-import { apiUser, guideIdParam, methodNotAllowed, PRIVATE_JSON, readAuthoringJson } from "./authoring-api.server";
+import { apiGuide, methodNotAllowed, PRIVATE_JSON, readAuthoringJson } from "./authoring-api.server";
 
 export function loader() {
   return methodNotAllowed(["POST"], "Submitting a guide");
@@ -19,11 +16,7 @@ export function loader() {
  */
 export const action = apiHandler(async (args: Route.ActionArgs) => {
   if (args.request.method !== "POST") return loader();
-  const user = await apiUser(args);
-  const guideId = guideIdParam(args.params.id);
-  const db = await getDb();
-  const guide = await getGuideById(db, guideId);
-  if (!guide) throw notFound("This guide");
+  const { user, db, guide, guideId } = await apiGuide(args);
   assertCan(user, "submit:guide", guide);
   const { changeSummary } = await readAuthoringJson(args.request, submitInputSchema);
   return Response.json(await submitRevision(db, guideId, user, changeSummary), { headers: PRIVATE_JSON });

@@ -1,5 +1,7 @@
 import type { z } from "zod";
 import type { User } from "~/db/schema";
+import { getDb } from "~/db/client.server";
+import { getGuideById } from "~/models/guides.server";
 import { requireUser } from "~/services/auth/guards.server";
 import { BODY_LIMITS } from "~/services/http/body-limit.server";
 import { AppError, notFound, unsupportedType } from "~/utils/errors";
@@ -64,3 +66,17 @@ export function apiUser(args: { request: Request; context?: unknown }): Promise<
 
 /** Answers the signed-in author's own data: never kept by a shared cache or the browser. */
 export const PRIVATE_JSON = { "Cache-Control": "private, no-store" } as const;
+
+/**
+ * The signed-in user, the database and the guide the path names (401, then 404). Each route checks
+ * its own permission on the guide before it reads a body, so a stranger learns nothing from field
+ * errors.
+ */
+export async function apiGuide(args: { request: Request; params: { id?: string }; context?: unknown }) {
+  const user = await apiUser(args);
+  const guideId = guideIdParam(args.params.id);
+  const db = await getDb();
+  const guide = await getGuideById(db, guideId);
+  if (!guide) throw notFound("This guide");
+  return { user, db, guide, guideId };
+}
