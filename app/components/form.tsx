@@ -34,24 +34,95 @@ export function Field({
   useEffect(() => {
     if (type === "password" && clearOn && input.current) input.current.value = "";
   }, [clearOn, type]);
+  return (
+    <FieldFrame id={id} label={label} error={error} hint={hint}>
+      {(described) => (
+        <input
+          ref={input}
+          id={id}
+          name={name}
+          type={type}
+          defaultValue={type === "password" ? undefined : defaultValue}
+          autoComplete={autoComplete}
+          required={required}
+          aria-invalid={error ? true : undefined}
+          aria-describedby={described}
+          className={controlClass(error)}
+        />
+      )}
+    </FieldFrame>
+  );
+}
+
+/** A required choice from a list, with the same label, hint and error as `Field`. */
+export function SelectField({
+  label,
+  name,
+  options,
+  defaultValue,
+  error,
+  hint,
+}: {
+  label: string;
+  name: string;
+  /** Pairs of value and label, in the order shown. */
+  options: readonly (readonly [string, string])[];
+  defaultValue?: string;
+  error?: string;
+  hint?: string;
+}) {
+  const id = `field-${name}`;
+  return (
+    <FieldFrame id={id} label={label} error={error} hint={hint}>
+      {(described) => (
+        <select
+          id={id}
+          name={name}
+          defaultValue={defaultValue ?? ""}
+          required
+          aria-invalid={error ? true : undefined}
+          aria-describedby={described}
+          className={controlClass(error)}
+        >
+          <option value="" disabled>
+            Choose…
+          </option>
+          {options.map(([value, text]) => (
+            <option key={value} value={value}>
+              {text}
+            </option>
+          ))}
+        </select>
+      )}
+    </FieldFrame>
+  );
+}
+
+function controlClass(error: string | undefined) {
+  return `mt-1.5 min-h-11 w-full rounded-md border bg-paper px-3 py-2 ${error ? "border-z-danger" : "border-rule"}`;
+}
+
+/** Label above, hint and error below, tied to the control by `aria-describedby`. */
+function FieldFrame({
+  id,
+  label,
+  error,
+  hint,
+  children,
+}: {
+  id: string;
+  label: string;
+  error?: string;
+  hint?: string;
+  children: (describedBy: string | undefined) => ReactNode;
+}) {
   const described = [error ? `${id}-error` : null, hint ? `${id}-hint` : null].filter(Boolean).join(" ") || undefined;
   return (
     <div className="mt-4 first:mt-0">
       <label htmlFor={id} className="block text-sm font-semibold text-ink">
         {label}
       </label>
-      <input
-        ref={input}
-        id={id}
-        name={name}
-        type={type}
-        defaultValue={type === "password" ? undefined : defaultValue}
-        autoComplete={autoComplete}
-        required={required}
-        aria-invalid={error ? true : undefined}
-        aria-describedby={described}
-        className={`mt-1.5 min-h-11 w-full rounded-md border bg-paper px-3 py-2 ${error ? "border-z-danger" : "border-rule"}`}
-      />
+      {children(described)}
       {hint ? (
         <p id={`${id}-hint`} className="mt-1 text-xs text-ink-soft">
           {hint}

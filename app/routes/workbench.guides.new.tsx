@@ -1,5 +1,5 @@
 import { Form, Link, redirect } from "react-router";
-import { Field, Notice, SubmitButton } from "~/components/form";
+import { Field, Notice, SelectField, SubmitButton } from "~/components/form";
 import { getDb } from "~/db/client.server";
 import { createGuide } from "~/models/guides.server";
 import { guideMetaSchema } from "~/models/guide-input";
@@ -22,52 +22,6 @@ export async function action(args: Route.ActionArgs) {
     const created = await createGuide(await getDb(), user, input);
     return redirect(`/workbench/guides/${created.id}`);
   });
-}
-
-function Choice({
-  name,
-  label,
-  options,
-  value,
-  error,
-}: {
-  name: string;
-  label: string;
-  options: readonly (readonly [string, string])[];
-  value?: string;
-  error?: string;
-}) {
-  const id = `field-${name}`;
-  return (
-    <div className="mt-4">
-      <label htmlFor={id} className="block text-sm font-semibold text-ink">
-        {label}
-      </label>
-      <select
-        id={id}
-        name={name}
-        defaultValue={value ?? ""}
-        required
-        aria-invalid={error ? true : undefined}
-        aria-describedby={error ? `${id}-error` : undefined}
-        className={`mt-1.5 min-h-11 w-full rounded-md border bg-paper px-3 py-2 ${error ? "border-z-danger" : "border-rule"}`}
-      >
-        <option value="" disabled>
-          Choose…
-        </option>
-        {options.map(([v, text]) => (
-          <option key={v} value={v}>
-            {text}
-          </option>
-        ))}
-      </select>
-      {error ? (
-        <p id={`${id}-error`} className="mt-1 text-sm font-medium text-z-danger">
-          {error}
-        </p>
-      ) : null}
-    </div>
-  );
 }
 
 export default function NewGuide({ actionData }: Route.ComponentProps) {
@@ -118,18 +72,18 @@ export default function NewGuide({ actionData }: Route.ComponentProps) {
           ) : null}
         </div>
         <div className="grid gap-x-4 sm:grid-cols-3">
-          <Choice
+          <SelectField
             name="category"
             label="Category"
             options={CATEGORIES.map((c) => [c, CATEGORY_LABELS[c]] as const)}
-            value={values.category}
+            defaultValue={values.category}
             error={fields.category}
           />
-          <Choice
+          <SelectField
             name="difficulty"
             label="Difficulty"
             options={[1, 2, 3, 4, 5].map((d) => [String(d), `${d} · ${DIFFICULTY_LABELS[d]}`] as const)}
-            value={values.difficulty}
+            defaultValue={values.difficulty}
             error={fields.difficulty}
           />
           <Field label="Time (minutes)" name="minutes" type="number" defaultValue={values.minutes} error={fields.minutes} />
