@@ -5,7 +5,9 @@ import { CATEGORIES, DRIVETRAINS, POWERTRAINS } from "~/utils/vocab";
 import { type ContentStamps, readContentStamps } from "./content-stamps.server";
 import {
   catalogueYearsOf,
+  fitmentFor,
   ftsQuery,
+  type LibraryFitment,
   type LibraryQuery,
   type LibraryRow,
   libraryAnswer,
@@ -48,7 +50,15 @@ type Index = {
    * SQLite some 30 ms at 20,000 guides.
    */
   searches: BoundedCache<string, Float64Array>;
+  /**
+   * The fitment rows a page shows, by published revision: immutable with the revision, and named
+   * from the catalogue, whose stamp is part of the index's key. A page then costs no query.
+   */
+  fitment: BoundedCache<number, LibraryFitment[]>;
 };
+
+/** Revisions whose fitment rows are kept: a few pages of every filter readers use. */
+const FITMENT_REVISIONS_KEPT = 4096;
 
 /** About 160 KB per search at 20,000 guides: the last hundred or so searches. */
 const SEARCH_BYTES_KEPT = 16 * 1024 * 1024;
@@ -124,7 +134,22 @@ async function buildIndex(db: Db): Promise<Index> {
     years: catalogueYearsOf(generationRows),
     scratch: scratchFor(guides.length, generations.length),
     searches: new BoundedCache(SEARCH_BYTES_KEPT, (ranks) => ranks.byteLength),
+    fitment: new BoundedCache(FITMENT_REVISIONS_KEPT),
   };
+}
+
+/** The fitment of these revisions, in their order, asking the database only for those not kept. */
+async function keptFitment(db: Db, index: Index, revisionIds: number[]): Promise<LibraryFitment[]> {
+  const missing = revisionIds.filter((id) => index.fitment.get(id) === undefined);
+  if (missing.length) {
+    const fetched = await fitmentFor(db, missing);
+    for (const id of missing)
+      index.fitment.set(
+        id,
+        fetched.filter((f) => f.revisionId === id),
+      );
+  }
+  return revisionIds.flatMap((id) => index.fitment.get(id) ?? []);
 }
 
 let current: { key: string; index: Promise<Index> } | undefined;
@@ -295,19 +320,24 @@ export async function listFromIndex(db: Db, asked: LibraryQuery, stamps?: Conten
   const shown = r
     ? firstInOrder(matching, offset + PAGE_SIZE, (a, b) => r[a] < r[b] || (r[a] === r[b] && a < b)).slice(offset)
     : matching.slice(offset, offset + PAGE_SIZE);
-  return libraryAnswer(db, query, {
-    rows: shown.map((g) => {
-      const { publishedAt: _p, ...row } = guides[g];
-      return row;
-    }),
-    total,
-    facets: {
-      powertrain: variantFacet(POWERTRAINS, powertrainCounts),
-      drivetrain: variantFacet(DRIVETRAINS, drivetrainCounts),
-      category: sortedCounts(new Map(CATEGORIES.map((c) => [c, categoryCounts.get(c) ?? 0]))),
-      difficulty: sortedCounts(difficultyCounts),
-      vehicle: sortedCounts(vehicleCounts),
+  return libraryAnswer(
+    db,
+    query,
+    {
+      rows: shown.map((g) => {
+        const { publishedAt: _p, ...row } = guides[g];
+        return row;
+      }),
+      total,
+      facets: {
+        powertrain: variantFacet(POWERTRAINS, powertrainCounts),
+        drivetrain: variantFacet(DRIVETRAINS, drivetrainCounts),
+        category: sortedCounts(new Map(CATEGORIES.map((c) => [c, categoryCounts.get(c) ?? 0]))),
+        difficulty: sortedCounts(difficultyCounts),
+        vehicle: sortedCounts(vehicleCounts),
+      },
+      problems,
     },
-    problems,
-  });
+    (revisionIds) => keptFitment(db, index, revisionIds),
+  );
 }

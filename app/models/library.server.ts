@@ -259,12 +259,12 @@ export async function libraryAnswer(
   db: Db,
   query: LibraryQuery,
   page: { rows: LibraryRow[]; total: number; facets: Facets; problems: LibraryProblems },
+  /** The fitment of the page's revisions, when the caller has it already. */
+  fitmentOf?: (revisionIds: number[]) => Promise<LibraryFitment[]>,
 ) {
   const { rows, total, facets, problems } = page;
-  const fitmentRows = await fitmentFor(
-    db,
-    rows.map((r) => r.revisionId),
-  );
+  const revisionIds = rows.map((r) => r.revisionId);
+  const fitmentRows = await (fitmentOf ? fitmentOf(revisionIds) : fitmentFor(db, revisionIds));
   const pages = Math.max(1, Math.ceil(total / PAGE_SIZE));
   if (total > 0 && query.page > pages) {
     problems.page = `Page ${query.page} is past the end of this list: it has ${pages} ${pages === 1 ? "page" : "pages"}.`;
@@ -331,7 +331,10 @@ function fitmentView(f: FitmentWithVehicle) {
   };
 }
 
-export async function fitmentFor(db: Db, revisionIds: number[]) {
+/** A fitment row of the Library's answer, with the revision it belongs to. */
+export type LibraryFitment = ReturnType<typeof fitmentView> & { revisionId: number };
+
+export async function fitmentFor(db: Db, revisionIds: number[]): Promise<LibraryFitment[]> {
   if (!revisionIds.length) return [];
   const rows = await db.query.fitment.findMany({
     where: inArray(fitment.revisionId, revisionIds),
