@@ -7,6 +7,7 @@
  *   npm run bench -- --scale PATH    Library filters and search at scale (a `npm run bench:data` database)
  *   npm run bench -- --models        the model functions in-process on the demo database
  *   npm run bench -- --authoring     autosave of a 40-step guide and the photo pipeline, in-process
+ *                                    (`--no-photos`: the autosave alone)
  *   --rebuild                        build both apps even when their builds look up to date
  */
 import { rmSync } from "node:fs";
@@ -230,7 +231,7 @@ async function mainRun() {
 try {
   if (args.includes("--authoring")) {
     const demo = await demoDatabase();
-    await runAuthoring(demo.databaseFile, plan.modelRuns);
+    await runAuthoring(demo.databaseFile, plan.modelRuns, { photos: !args.includes("--no-photos") });
   } else if (args.includes("--models")) {
     const demo = await demoDatabase();
     await runModels(demo.databaseFile, plan.modelRuns);

@@ -203,8 +203,9 @@ export async function saveDraft(db: Db, guideId: number, actor: Actor, input: Dr
     db.delete(fitment).where(eq(fitment.revisionId, revisionId)),
     db.delete(parts).where(eq(parts.revisionId, revisionId)),
     db.delete(tools).where(eq(tools.revisionId, revisionId)),
-    ...input.steps.flatMap((step, position) => [
-      db.insert(steps).values({
+    // One multi-row insert per table: a 40-step save is a dozen statements, not hundreds.
+    ...insertRows(
+      input.steps.map((step, position) => ({
         revisionId,
         position,
         title: step.title,
@@ -213,15 +214,33 @@ export async function saveDraft(db: Db, guideId: number, actor: Actor, input: Dr
         bodyText: rendered[position].text,
         liftsVehicle: step.liftsVehicle,
         disconnectsBattery: step.disconnectsBattery,
-      }),
-      ...step.callouts.map((callout, i) => {
-        return db.insert(callouts).values({ stepId: sql`${stepId(position)}`, position: i, ...calloutRow(callout) });
-      }),
-      ...step.photos.map((photo, i) => db.insert(stepPhotos).values({ stepId: sql`${stepId(position)}`, position: i, ...photo })),
-    ]),
-    ...input.fitment.map((row) => db.insert(fitment).values({ revisionId, ...row })),
-    ...input.parts.map((part, position) => db.insert(parts).values({ revisionId, position, ...part })),
-    ...input.tools.map((tool, position) => db.insert(tools).values({ revisionId, position, ...tool })),
+      })),
+      (rows) => db.insert(steps).values(rows),
+    ),
+    ...insertRows(
+      input.steps.flatMap((step, position) =>
+        step.callouts.map((callout, i) => ({ stepId: sql`${stepId(position)}`, position: i, ...calloutRow(callout) })),
+      ),
+      (rows) => db.insert(callouts).values(rows),
+    ),
+    ...insertRows(
+      input.steps.flatMap((step, position) =>
+        step.photos.map((photo, i) => ({ stepId: sql`${stepId(position)}`, position: i, ...photo })),
+      ),
+      (rows) => db.insert(stepPhotos).values(rows),
+    ),
+    ...insertRows(
+      input.fitment.map((row) => ({ revisionId, ...row })),
+      (rows) => db.insert(fitment).values(rows),
+    ),
+    ...insertRows(
+      input.parts.map((part, position) => ({ revisionId, position, ...part })),
+      (rows) => db.insert(parts).values(rows),
+    ),
+    ...insertRows(
+      input.tools.map((tool, position) => ({ revisionId, position, ...tool })),
+      (rows) => db.insert(tools).values(rows),
+    ),
   ];
   await runBatch(db, queries);
 
@@ -232,6 +251,16 @@ export async function saveDraft(db: Db, guideId: number, actor: Actor, input: Dr
     ),
   });
   return { version: input.version + 1, revisionId, findings };
+}
+
+/** Rows per insert statement: well under SQLite's limit on bound values (32,766) for any table here. */
+const ROWS_PER_INSERT = 200;
+
+/** Multi-row inserts of `rows`, none when there are none (an empty VALUES list is not SQL). */
+function insertRows<R, Q>(rows: R[], insert: (chunk: R[]) => Q): Q[] {
+  const queries: Q[] = [];
+  for (let i = 0; i < rows.length; i += ROWS_PER_INSERT) queries.push(insert(rows.slice(i, i + ROWS_PER_INSERT)));
+  return queries;
 }
 
 export const ALT_MIN_CHARS = 3;
