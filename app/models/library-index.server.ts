@@ -34,8 +34,11 @@ type Index = {
   /** Newest first (published_at, then id, descending): the Library's order without a search. */
   guides: Guide[];
   byRevision: Map<number, number>;
-  /** One entry per fitting variant of each guide (status other than does-not-fit), by guide. */
-  rowGuide: Int32Array;
+  /**
+   * The fitting variants (status other than does-not-fit) as rows grouped by guide: guide `g`'s
+   * rows are `rowStart[g]` up to `rowStart[g + 1]`.
+   */
+  rowStart: Int32Array;
   /** Index into `generations`. */
   rowGeneration: Int32Array;
   rowPowertrain: Int8Array;
@@ -49,7 +52,7 @@ type Index = {
    * change only with the content, and ranking every guide for a word they all contain takes
    * SQLite some 30 ms at 20,000 guides.
    */
-  searches: BoundedCache<string, Float64Array>;
+  searches: BoundedCache<string, SearchHits>;
   /**
    * The fitment rows a page shows, by published revision: immutable with the revision, and named
    * from the catalogue, whose stamp is part of the index's key. A page then costs no query.
@@ -64,6 +67,9 @@ const FITMENT_REVISIONS_KEPT = 4096;
 const SEARCH_BYTES_KEPT = 16 * 1024 * 1024;
 
 type Scratch = ReturnType<typeof scratchFor>;
+
+/** A search's rank by guide (NaN: no match) and its matching guides in the index's order. */
+type SearchHits = { rank: Float64Array; guides: Int32Array };
 
 function scratchFor(guides: number, generations: number) {
   return {
@@ -111,14 +117,18 @@ async function buildIndex(db: Db): Promise<Index> {
     JOIN variants v ON v.id = f.variant_id WHERE g.state = 'published'`);
   // Rows grouped by guide, so a guide's rows come one after another when counting guides per value.
   const guideOfRow = fitting.map((row) => byRevision.get(row.revisionId) ?? -1);
-  const order = fitting.map((_, i) => i).sort((a, b) => guideOfRow[a] - guideOfRow[b]);
-  const rowGuide = new Int32Array(fitting.length);
-  const rowGeneration = new Int32Array(fitting.length);
-  const rowPowertrain = new Int8Array(fitting.length);
-  const rowDrivetrain = new Int8Array(fitting.length);
+  const order = fitting
+    .map((_, i) => i)
+    .filter((i) => guideOfRow[i] >= 0)
+    .sort((a, b) => guideOfRow[a] - guideOfRow[b]);
+  const rowGeneration = new Int32Array(order.length);
+  const rowPowertrain = new Int8Array(order.length);
+  const rowDrivetrain = new Int8Array(order.length);
+  const rowStart = new Int32Array(guides.length + 1);
+  for (const from of order) rowStart[guideOfRow[from] + 1]++;
+  for (let g = 0; g < guides.length; g++) rowStart[g + 1] += rowStart[g];
   order.forEach((from, i) => {
     const row = fitting[from];
-    rowGuide[i] = guideOfRow[from];
     rowGeneration[i] = generationAt.get(row.generationId) ?? -1;
     rowPowertrain[i] = (POWERTRAINS as readonly string[]).indexOf(row.powertrain);
     rowDrivetrain[i] = (DRIVETRAINS as readonly string[]).indexOf(row.drivetrain);
@@ -126,14 +136,14 @@ async function buildIndex(db: Db): Promise<Index> {
   return {
     guides,
     byRevision,
-    rowGuide,
+    rowStart,
     rowGeneration,
     rowPowertrain,
     rowDrivetrain,
     generations,
     years: catalogueYearsOf(generationRows),
     scratch: scratchFor(guides.length, generations.length),
-    searches: new BoundedCache(SEARCH_BYTES_KEPT, (ranks) => ranks.byteLength),
+    searches: new BoundedCache(SEARCH_BYTES_KEPT, (hits) => hits.rank.byteLength + hits.guides.byteLength),
     fitment: new BoundedCache(FITMENT_REVISIONS_KEPT),
   };
 }
@@ -218,7 +228,7 @@ function sortedCounts(counts: Map<string, number>): Record<string, number> {
 }
 
 /** The rank of every guide for a full-text query (NaN where it does not match), kept with the index. */
-async function searchRanks(db: Db, index: Index, match: string): Promise<Float64Array> {
+async function searchHits(db: Db, index: Index, match: string): Promise<SearchHits> {
   const rank = new Float64Array(index.guides.length).fill(Number.NaN);
   // Every match as "revision rank" in one string: a row per match would cost more to hand over
   // than SQLite takes to rank them. 17 significant digits give back the very double SQL compares.
@@ -231,8 +241,13 @@ async function searchRanks(db: Db, index: Index, match: string): Promise<Float64
     const i = index.byRevision.get(Number(hit.slice(0, space)));
     if (i !== undefined) rank[i] = Number(hit.slice(space + 1));
   }
-  index.searches.set(match, rank);
-  return rank;
+  const matched: number[] = [];
+  rank.forEach((r, g) => {
+    if (!Number.isNaN(r)) matched.push(g);
+  });
+  const found = { rank, guides: Int32Array.from(matched) };
+  index.searches.set(match, found);
+  return found;
 }
 
 /** `listPublishedGuides`, answered from the index (`stamps`: read by the caller for this request). */
@@ -244,7 +259,12 @@ export async function listFromIndex(db: Db, asked: LibraryQuery, stamps?: Conten
 
   // With a search, only the index's matches count, each with its rank.
   const match = query.q ? ftsQuery(query.q) : null;
-  const rank = match ? (index.searches.get(match) ?? (await searchRanks(db, index, match))) : null;
+  const hits = match ? (index.searches.get(match) ?? (await searchHits(db, index, match))) : null;
+  const rank = hits?.rank ?? null;
+  // The guides a query can list: a search's matches, else all. Every pass below visits only these,
+  // so a rare word costs a pass over its few matches, not over every guide.
+  const candidates = hits?.guides ?? null;
+  const candidateCount = candidates ? candidates.length : count;
 
   // Per guide: whether it meets the filters on its own columns (and the search), all of them or all
   // but the category or the difficulty (for those two facets).
@@ -254,8 +274,8 @@ export async function listFromIndex(db: Db, asked: LibraryQuery, stamps?: Conten
     array.fill(0);
   }
   generationLast.fill(-1);
-  for (let g = 0; g < count; g++) {
-    if (rank && Number.isNaN(rank[g])) continue;
+  for (let k = 0; k < candidateCount; k++) {
+    const g = candidates ? candidates[k] : k;
     const category = !query.category || guides[g].category === query.category;
     const difficulty = !query.difficulty || guides[g].difficulty === query.difficulty;
     ok[g] = category && difficulty ? 1 : 0;
@@ -267,24 +287,26 @@ export async function listFromIndex(db: Db, asked: LibraryQuery, stamps?: Conten
   // powertrains (bits) and drivetrains have one meeting every vehicle filter but their own; per
   // generation, how many guides that meet every other filter have a variant of it.
   const vehicleFiltered = hasVehicleFilter(query);
-  const { rowGuide, rowGeneration, rowPowertrain, rowDrivetrain } = index;
+  const { rowStart, rowGeneration, rowPowertrain, rowDrivetrain } = index;
   const generation = generationFilters(index, query);
   const wantPowertrain = query.powertrain ? POWERTRAINS.indexOf(query.powertrain) : -1;
   const wantDrivetrain = query.drivetrain ? DRIVETRAINS.indexOf(query.drivetrain) : -1;
-  for (let r = 0; r < rowGuide.length; r++) {
-    const g = rowGuide[r];
-    const gen = rowGeneration[r];
-    if (g < 0 || gen < 0 || (rank && Number.isNaN(rank[g]))) continue;
-    const powertrain = wantPowertrain < 0 || rowPowertrain[r] === wantPowertrain;
-    const drivetrain = wantDrivetrain < 0 || rowDrivetrain[r] === wantDrivetrain;
-    const named = generation.all[gen] === 1;
-    if (named && powertrain && drivetrain) vehicleAll[g] = 1;
-    if (named && drivetrain) powertrainBits[g] |= 1 << rowPowertrain[r];
-    if (named && powertrain) drivetrainBits[g] |= 1 << rowDrivetrain[r];
-    // Rows come grouped by guide: a guide is counted once per generation.
-    if (ok[g] === 1 && generation.year[gen] === 1 && powertrain && drivetrain && generationLast[gen] !== g) {
-      generationLast[gen] = g;
-      generationCounts[gen]++;
+  for (let k = 0; k < candidateCount; k++) {
+    const g = candidates ? candidates[k] : k;
+    for (let r = rowStart[g]; r < rowStart[g + 1]; r++) {
+      const gen = rowGeneration[r];
+      if (gen < 0) continue;
+      const powertrain = wantPowertrain < 0 || rowPowertrain[r] === wantPowertrain;
+      const drivetrain = wantDrivetrain < 0 || rowDrivetrain[r] === wantDrivetrain;
+      const named = generation.all[gen] === 1;
+      if (named && powertrain && drivetrain) vehicleAll[g] = 1;
+      if (named && drivetrain) powertrainBits[g] |= 1 << rowPowertrain[r];
+      if (named && powertrain) drivetrainBits[g] |= 1 << rowDrivetrain[r];
+      // Rows come grouped by guide: a guide is counted once per generation.
+      if (ok[g] === 1 && generation.year[gen] === 1 && powertrain && drivetrain && generationLast[gen] !== g) {
+        generationLast[gen] = g;
+        generationCounts[gen]++;
+      }
     }
   }
 
@@ -293,7 +315,8 @@ export async function listFromIndex(db: Db, asked: LibraryQuery, stamps?: Conten
   const difficultyCounts = new Map<string, number>();
   const powertrainCounts = new Int32Array(POWERTRAINS.length);
   const drivetrainCounts = new Int32Array(DRIVETRAINS.length);
-  for (let g = 0; g < count; g++) {
+  for (let k = 0; k < candidateCount; k++) {
+    const g = candidates ? candidates[k] : k;
     if (ok[g] === 1) {
       for (let v = 0; v < POWERTRAINS.length; v++) if (powertrainBits[g] & (1 << v)) powertrainCounts[v]++;
       for (let v = 0; v < DRIVETRAINS.length; v++) if (drivetrainBits[g] & (1 << v)) drivetrainCounts[v]++;
