@@ -132,6 +132,13 @@ const MATRIX: Record<string, Probe[]> = {
     { path: "/me/account", expect: signedIn(200, 302) },
     { method: "POST", path: "/me/account", form: { intent: "none" }, expect: signedIn(400, 302) },
   ],
+  // A mail's opt-out link works for anyone who holds it, signed in or not; a token that is not
+  // signed by the app is refused (400), a post that is not a form before that (415).
+  "/mail/opt-out/:token": [
+    { path: `/mail/opt-out/${badToken}`, expect: all(400) },
+    { method: "POST", path: `/mail/opt-out/${badToken}`, form: { "List-Unsubscribe": "One-Click" }, expect: all(400) },
+    { method: "POST", path: `/mail/opt-out/${badToken}`, expect: all(415) },
+  ],
   "/contributor-terms": [
     { path: "/contributor-terms", expect: all(200) },
     // Without the tick nothing changes: a reader is told to tick it, the others already write.
