@@ -67,7 +67,7 @@ export async function accountAction(args: { request: Request; context?: unknown 
         const ticked = input as Record<string, string | undefined>;
         const wanted = shown.filter((k) => ticked[mailField(k)] === "on");
         await saveMailPreferences(db, auth.user.id, shown, wanted);
-        return redirectWithFlash("/me/account#mail", { tone: "success", text: "Your mail choices are saved." });
+        return redirectWithFlash("/me/account", { tone: "success", text: "Your mail choices are saved." });
       }
       case "everywhere":
         await revokeUserSessions(db, auth.user.id);

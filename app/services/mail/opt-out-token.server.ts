@@ -1,4 +1,5 @@
 import { createHmac, timingSafeEqual } from "node:crypto";
+import { z } from "zod";
 import { env } from "~/utils/env.server";
 import { isOptionalMailKind, type OptionalMailKind } from "~/utils/mail-kinds";
 
@@ -13,6 +14,7 @@ import { isOptionalMailKind, type OptionalMailKind } from "~/utils/mail-kinds";
 const PURPOSE = "torqueleaf mail opt-out v1";
 const TOKEN = /^([1-9]\d{0,9})\.([a-z-]{1,40})\.([A-Za-z0-9_-]{43})$/;
 export const MAX_OPT_OUT_TOKEN_LENGTH = 100;
+const tokenSchema = z.string().max(MAX_OPT_OUT_TOKEN_LENGTH).regex(TOKEN);
 
 const secrets = () =>
   env()
@@ -34,8 +36,8 @@ export function optOutUrl(userId: number, kind: OptionalMailKind): string {
 
 /** Who and what a token is for, or null when it is malformed or its signature does not match any secret. */
 export function readOptOutToken(token: string): { userId: number; kind: OptionalMailKind } | null {
-  if (token.length > MAX_OPT_OUT_TOKEN_LENGTH) return null;
-  const match = TOKEN.exec(token);
+  const parsed = tokenSchema.safeParse(token);
+  const match = parsed.success ? TOKEN.exec(parsed.data) : null;
   if (!match) return null;
   const [, id, kind, signature] = match;
   if (!isOptionalMailKind(kind)) return null;
