@@ -28,6 +28,7 @@ export default [
   route("auth/github/callback", "routes/auth.github.callback.ts"),
   route("auth/github/link", "routes/auth.github.link.tsx"),
   route("me/account", "routes/me.account.tsx"),
+  route("mail/opt-out/:token", "routes/mail.opt-out.tsx"),
   route("contributor-terms", "routes/contributor-terms.tsx"),
   route("admin/users", "routes/admin.users.tsx"),
   // Authoring.

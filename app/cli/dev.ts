@@ -13,3 +13,8 @@ const vite = await createServer({
 });
 await vite.listen();
 vite.printUrls();
+// The outbox worker, loaded through Vite like the routes, so it shares their settings and database.
+const { startOutboxWorker } = (await vite.ssrLoadModule(
+  "/app/services/mail/outbox-worker.server.ts",
+)) as typeof import("~/services/mail/outbox-worker.server");
+startOutboxWorker();

@@ -8,6 +8,7 @@ import { stampRequestKind } from "~/services/http/request-kind.server";
 import { securityHeadersLayer } from "~/services/http/security-headers.server";
 import { getDb } from "~/db/client.server";
 import { sweepUnusedMedia } from "~/models/media.server";
+import { startOutboxWorker } from "~/services/mail/outbox-worker.server";
 import { getStorage } from "~/services/storage.server";
 import { boot } from "./boot";
 
@@ -53,9 +54,14 @@ setInterval(
       .catch((error) => console.error("media sweep failed:", error)),
   60 * 60 * 1000,
 ).unref();
+// Sends the outbox's mail; woken by every change that writes some, and it picks up what a previous
+// run left (a crash included).
+const outbox = startOutboxWorker();
 for (const signal of ["SIGINT", "SIGTERM"] as const) {
-  process.on(signal, () => {
+  process.once(signal, () => {
     server.close();
-    process.exit(0);
+    // The send in progress may finish and be marked; a mail server that hangs does not hold the exit up.
+    const enough = new Promise((resolve) => setTimeout(resolve, 5000).unref());
+    void Promise.race([outbox.stop(), enough]).finally(() => process.exit(0));
   });
 }

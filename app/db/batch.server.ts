@@ -1,5 +1,6 @@
 import type { BatchItem } from "drizzle-orm/batch";
 import type { Db } from "./client.server";
+import { isOutboxWrite, outboxChanged } from "./outbox-signal.server";
 
 /** One statement of a batch: any insert, update, delete, select or raw `db.run` built on this database. */
 export type BatchQuery = BatchItem<"sqlite">;
@@ -12,5 +13,8 @@ export type BatchQuery = BatchItem<"sqlite">;
 export async function batch(db: Db, queries: readonly (BatchQuery | false | null | undefined)[]): Promise<unknown[]> {
   const items = queries.filter((q): q is BatchQuery => !!q);
   if (items.length === 0) return [];
-  return db.batch(items as [BatchQuery, ...BatchQuery[]]);
+  const results = await db.batch(items as [BatchQuery, ...BatchQuery[]]);
+  // Committed: mail written with the change can go now.
+  if (items.some(isOutboxWrite)) outboxChanged();
+  return results;
 }

@@ -20,13 +20,14 @@ export const TOKEN_TTL: Record<TokenKind, number> = {
 };
 
 /**
- * Issues a random single-use token and stores only its hash. Older unused tokens of the same kind
+ * A random single-use token and the queries that store it (only its hash) for a batch, so a mail
+ * carrying the link can be written in the same transaction. Older unused tokens of the same kind
  * for the same user stop working, so only the newest mail's link is valid.
  */
-export async function issueToken(db: Db, userId: number, kind: TokenKind, data?: Record<string, unknown>) {
+export function tokenQueries(db: Db, userId: number, kind: TokenKind, data?: Record<string, unknown>) {
   const token = randomBytes(32).toString("base64url");
   const now = new Date();
-  await batch(db, [
+  const queries = [
     db
       .update(userTokens)
       .set({ usedAt: now })
@@ -38,7 +39,14 @@ export async function issueToken(db: Db, userId: number, kind: TokenKind, data?:
       data: data ?? null,
       expiresAt: new Date(now.getTime() + TOKEN_TTL[kind]),
     }),
-  ]);
+  ];
+  return { token, queries };
+}
+
+/** Issues a token on its own (see `tokenQueries`). */
+export async function issueToken(db: Db, userId: number, kind: TokenKind, data?: Record<string, unknown>) {
+  const { token, queries } = tokenQueries(db, userId, kind, data);
+  await batch(db, queries);
   return token;
 }
 

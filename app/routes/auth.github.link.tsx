@@ -5,11 +5,8 @@ import { Notice, SubmitButton } from "~/components/form";
 import { getDb } from "~/db/client.server";
 import { cancelLink, confirmLink, pendingLink } from "~/services/auth/github-accounts.server";
 import { expiredCookie, linkCookie, returnToCookie } from "~/services/auth/github-flow.server";
-import { unconfirmedPasswordClearedMail } from "~/services/auth/mails.server";
 import { safeRedirect } from "~/services/auth/redirect";
 import { startSession } from "~/services/auth/session.server";
-import { sendInBackground } from "~/services/mail.server";
-import { env } from "~/utils/env.server";
 import { failureOf } from "~/utils/forms";
 import { handleForm } from "~/utils/forms.server";
 import type { Route } from "./+types/auth.github.link";
@@ -55,14 +52,10 @@ async function answerLink(request: Request, intent: "link" | "cancel") {
   }
   const confirmed = await confirmLink(db, token);
   if (!confirmed) return redirect("/login?notice=link-expired", { headers });
-  const { user, link, passwordCleared } = confirmed;
+  const { user, passwordCleared } = confirmed;
   headers.append("Set-Cookie", await startSession(request, user.id));
   if (passwordCleared) {
-    const origin = env().APP_ORIGIN;
-    sendInBackground(
-      unconfirmedPasswordClearedMail(user.email, user.name, link.login, `${origin}/me/account`, `${origin}/reset`),
-    );
-    // The account page says what changed and offers to set a new password.
+    // The mail that says so is in the outbox (confirmLink). The account page says what changed and offers to set a new password.
     return redirect("/me/account?notice=password-cleared", { headers });
   }
   return redirect(safeRedirect(await returnToCookie().parse(request.headers.get("cookie"))), { headers });

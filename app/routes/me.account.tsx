@@ -1,6 +1,7 @@
 import { Form, Link } from "react-router";
 import { Field, Notice, SubmitButton } from "~/components/form";
 import { getDb } from "~/db/client.server";
+import { mailOptOutsOf } from "~/models/mail-preferences.server";
 import { recentFailedAttempts } from "~/models/rate-limit.server";
 import { describeSession, listLiveSessions, plainAddress } from "~/models/sessions.server";
 import { listOAuthAccounts } from "~/models/users.server";
@@ -9,8 +10,9 @@ import { requireUser } from "~/services/auth/guards.server";
 import { getAuth } from "~/services/auth/session.server";
 import { failureOf } from "~/utils/forms";
 import { formatDateTime } from "~/utils/format";
+import { MAIL_KIND_INFO } from "~/utils/mail-kinds";
 import type { Route } from "./+types/me.account";
-import { accountAction } from "./me.account.server";
+import { accountAction, mailField, mailKindsShown } from "./me.account.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Your account · Torqueleaf" }, { name: "robots", content: "noindex" }];
 
@@ -18,10 +20,11 @@ export async function loader(args: Route.LoaderArgs) {
   const user = await requireUser(args);
   const auth = (await getAuth(args))!;
   const db = await getDb();
-  const [sessions, linked, failed] = await Promise.all([
+  const [sessions, linked, failed, mailOff] = await Promise.all([
     listLiveSessions(db, user.id),
     listOAuthAccounts(db, user.id),
     recentFailedAttempts(db, user.id),
+    mailOptOutsOf(db, user.id),
   ]);
   const notice = NOTICES[new URL(args.request.url).searchParams.get("notice") ?? ""] ?? null;
   return {
@@ -34,6 +37,12 @@ export async function loader(args: Route.LoaderArgs) {
     },
     sessions: sessions.map((s) => ({ ...describeSession(s), current: s.id === auth.sessionId })),
     linked,
+    mail: mailKindsShown(user.role, mailOff).map((kind) => ({
+      kind,
+      field: mailField(kind),
+      ...MAIL_KIND_INFO[kind],
+      on: !mailOff.includes(kind),
+    })),
     failed: {
       ...failed,
       attempts: failed.attempts.map((a) => ({ ...a, ipAddress: plainAddress(a.ipAddress) ?? "an unknown address" })),
@@ -61,9 +70,9 @@ export const headers = formHeaders;
 // A fixed time zone, so the server's page and the browser's render say the same thing.
 const when = (d: Date | string) => formatDateTime(d);
 
-function Section({ title, children }: { title: string; children: React.ReactNode }) {
+function Section({ title, id, children }: { title: string; id?: string; children: React.ReactNode }) {
   return (
-    <section className="mt-8 rounded-xl border border-rule bg-white p-6 shadow-sm">
+    <section id={id} className="mt-8 scroll-mt-6 rounded-xl border border-rule bg-white p-6 shadow-sm">
       <h2 className="font-serif text-2xl font-semibold text-spruce-900">{title}</h2>
       <div className="mt-4">{children}</div>
     </section>
@@ -71,7 +80,7 @@ function Section({ title, children }: { title: string; children: React.ReactNode
 }
 
 export default function Account({ loaderData, actionData }: Route.ComponentProps) {
-  const { account, sessions, linked, failed, notice } = loaderData;
+  const { account, sessions, linked, mail, failed, notice } = loaderData;
   // Success comes back as a flash message after a redirect; only a refusal is answered here.
   const failure = failureOf(actionData);
   const values = failure?.values ?? {};
@@ -153,6 +162,46 @@ export default function Account({ loaderData, actionData }: Route.ComponentProps
             Also signs in with:{" "}
             {linked.map((l) => `${l.provider === "github" ? "GitHub" : l.provider} (${l.email ?? "no address"})`).join(", ")}
           </p>
+        ) : null}
+      </Section>
+
+      <Section title="Mail" id="mail">
+        {message("mail")}
+        <p className="text-sm text-ink-soft">
+          Mail about your account itself (confirming your address, resetting or changing your password) always comes. Choose which
+          notices you get besides; every notice also has a link to turn its kind off.
+        </p>
+        {mail.length ? (
+          <Form method="post" className="mt-4">
+            <input type="hidden" name="intent" value="mail" />
+            <fieldset>
+              <legend className="sr-only">Notices to get by mail</legend>
+              <ul className="space-y-3">
+                {mail.map((m) => (
+                  <li key={m.kind}>
+                    <label className="flex min-h-11 cursor-pointer items-start gap-3">
+                      <input
+                        type="checkbox"
+                        name={m.field}
+                        defaultChecked={intent === "mail" ? values[m.field] === "on" : m.on}
+                        className="mt-1 size-5 shrink-0 accent-spruce-700"
+                        aria-describedby={`${m.field}-hint`}
+                      />
+                      <span>
+                        <span className="block font-medium">{m.label}</span>
+                        <span id={`${m.field}-hint`} className="block text-sm text-ink-soft">
+                          {m.hint}
+                        </span>
+                      </span>
+                    </label>
+                  </li>
+                ))}
+              </ul>
+            </fieldset>
+            <div className="mt-4">
+              <SubmitButton>Save the mail choices</SubmitButton>
+            </div>
+          </Form>
         ) : null}
       </Section>
 

@@ -132,6 +132,13 @@ const MATRIX: Record<string, Probe[]> = {
     { path: "/me/account", expect: signedIn(200, 302) },
     { method: "POST", path: "/me/account", form: { intent: "none" }, expect: signedIn(400, 302) },
   ],
+  // A mail's opt-out link works for anyone who holds it, signed in or not; a token that is not
+  // signed by the app is refused (400), a post that is not a form before that (415).
+  "/mail/opt-out/:token": [
+    { path: `/mail/opt-out/${badToken}`, expect: all(400) },
+    { method: "POST", path: `/mail/opt-out/${badToken}`, form: { "List-Unsubscribe": "One-Click" }, expect: all(400) },
+    { method: "POST", path: `/mail/opt-out/${badToken}`, expect: all(415) },
+  ],
   "/contributor-terms": [
     { path: "/contributor-terms", expect: all(200) },
     // Without the tick nothing changes: a reader is told to tick it, the others already write.
@@ -165,6 +172,14 @@ const MATRIX: Record<string, Probe[]> = {
     { method: "POST", path: "/api/no-such-endpoint", json: {}, expect: all(404) },
   ],
   "/*": [{ path: "/no-such-page", expect: all(404) }],
+};
+
+/**
+ * Routes that take writes from other sites on purpose, and why (docs/decisions/0006-mail-outbox.md).
+ * Mail clients post RFC 8058 one-click opt-outs from their own servers and pages.
+ */
+const CROSS_SITE_EXCEPTIONS: Record<string, string> = {
+  "/mail/opt-out/:token": "a mail's one-click opt-out, authorised by its signed token",
 };
 
 const sessions = new Map<Who, string | null>();
@@ -221,6 +236,7 @@ describe("authorization matrix", () => {
   it("refuses a cross-site POST to every route with 403, before any action runs", async () => {
     const refused: string[] = [];
     for (const [pattern, probes] of Object.entries(MATRIX)) {
+      if (pattern in CROSS_SITE_EXCEPTIONS) continue;
       const probe = probes[0];
       const path = typeof probe.path === "function" ? probe.path("reader") : probe.path;
       const response = await fetch(`${origin}${path}`, {
@@ -231,5 +247,23 @@ describe("authorization matrix", () => {
       if (response.status !== 403) refused.push(`${pattern}: ${response.status}`);
     }
     expect(refused, "routes that accepted a cross-site POST").toEqual([]);
+  });
+
+  it("lets a cross-site POST through only where a signed token, not a session, authorises it", async () => {
+    // The mail's one-click opt-out: an unsigned token is still refused, by the route (400).
+    const response = await fetch(`${origin}/mail/opt-out/${badToken}`, {
+      method: "POST",
+      headers: { origin: "http://evil.example", "content-type": "application/x-www-form-urlencoded" },
+      body: "List-Unsubscribe=One-Click",
+      redirect: "manual",
+    });
+    expect(response.status).toBe(400);
+    // Other addresses below /mail are not part of the exception.
+    const beside = await fetch(`${origin}/mail/opt-out/${badToken}/more`, {
+      method: "POST",
+      headers: { origin: "http://evil.example" },
+      redirect: "manual",
+    });
+    expect(beside.status).toBe(403);
   });
 });

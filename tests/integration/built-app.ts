@@ -59,22 +59,25 @@ export type BuiltApp = {
   output: () => string;
   exited: Promise<number | null>;
   stop: () => Promise<void>;
+  /** Ends the process at once (SIGKILL: no shutdown code runs), as a crash or a power cut would. */
+  kill: () => Promise<void>;
 };
 
 /**
  * Starts `build/cli/start.js` (the built app behind Express, as `npm start` runs it) in its own process with exactly the
  * settings given on top of a clean environment, on a free port, and waits until it answers or exits.
- * `database`: "empty" (a new file) or "demo" (a copy of the migrated demo database).
+ * `database`: "empty" (a new file) or "demo" (a copy of the migrated demo database); `databaseFile`
+ * reuses the file of an app started before (a restart).
  */
 export async function startBuiltApp(
   settings: Record<string, string>,
-  options: { database?: "empty" | "demo"; args?: string[]; wait?: boolean } = {},
+  options: { database?: "empty" | "demo"; databaseFile?: string; args?: string[]; wait?: boolean } = {},
 ): Promise<BuiltApp> {
   const port = await freePort();
   const dir = join(TMP_DIR, "built", `${port}-${Date.now()}`);
   mkdirSync(dir, { recursive: true });
-  const database = join(dir, "app.db");
-  if (options.database === "demo") copyFileSync(BASE_DB, database);
+  const database = options.databaseFile ?? join(dir, "app.db");
+  if (options.database === "demo" && !options.databaseFile) copyFileSync(BASE_DB, database);
   const child: ChildProcess = spawn(process.execPath, ["build/cli/start.js", ...(options.args ?? [])], {
     cwd: ROOT,
     env: {
@@ -105,6 +108,12 @@ export async function startBuiltApp(
     stop: async () => {
       if (child.exitCode === null && child.signalCode === null) {
         child.kill("SIGTERM");
+        await exited;
+      }
+    },
+    kill: async () => {
+      if (child.exitCode === null && child.signalCode === null) {
+        child.kill("SIGKILL");
         await exited;
       }
     },

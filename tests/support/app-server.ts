@@ -17,7 +17,7 @@ async function freePort(): Promise<number> {
 
 /**
  * Serves the app from source exactly as `npm run dev` does (Vite with React Router's plugin and
- * our peer-address stamp), on a free port, against the calling file's database copy. Tests talk
+ * our peer-address stamp, and the outbox worker), on a free port, against the calling file's database copy. Tests talk
  * to it over real HTTP, so the root middleware, cookies and redirects are all in play.
  *
  * `host` is where it listens and what the origin names: the shared server of the integration run
@@ -38,5 +38,17 @@ export async function startAppServer(
     plugins: [bodyLimitPlugin(), peerAddressPlugin(), httpHardeningPlugin()],
   });
   await vite.listen();
-  return { origin, stop: () => vite.close() };
+  // As `npm run dev` does: the outbox worker, loaded through Vite like the routes, so it reads the
+  // same settings and database as the app it serves.
+  const { startOutboxWorker } = (await vite.ssrLoadModule(
+    "/app/services/mail/outbox-worker.server.ts",
+  )) as typeof import("~/services/mail/outbox-worker.server");
+  const outbox = startOutboxWorker();
+  return {
+    origin,
+    stop: async () => {
+      await outbox.stop();
+      await vite.close();
+    },
+  };
 }

@@ -65,6 +65,7 @@ export const ROUTE_PATHS: Record<string, (photo: string) => string[]> = {
   "/auth/github/callback": () => ["/auth/github/callback?code=x&state=y"],
   "/auth/github/link": () => ["/auth/github/link"],
   "/me/account": () => ["/me/account"],
+  "/mail/opt-out/:token": () => [`/mail/opt-out/${fixtures.badToken}`],
   "/contributor-terms": () => ["/contributor-terms"],
   "/admin/users": () => ["/admin/users"],
   "/workbench": () => ["/workbench"],

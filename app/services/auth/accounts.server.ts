@@ -1,11 +1,12 @@
 import { z } from "zod";
-import { getDb } from "~/db/client.server";
+import { type Db, getDb } from "~/db/client.server";
 import type { User } from "~/db/schema";
 import { batch } from "~/db/batch.server";
 import { auditInsert } from "~/models/audit.server";
 import { enforceLimits, forgive, recordFailedAttempt } from "~/models/rate-limit.server";
 import { revokeUserSessionsQuery } from "~/models/sessions.server";
-import { consumeToken, issueToken, peekToken } from "~/models/user-tokens.server";
+import { outboxInsert, queueMail } from "~/models/outbox.server";
+import { consumeToken, peekToken, type TokenKind, tokenQueries } from "~/models/user-tokens.server";
 import {
   createUser,
   findUserByEmail,
@@ -14,7 +15,7 @@ import {
   markEmailVerifiedQuery,
   setPasswordHashQuery,
 } from "~/models/users.server";
-import { sendInBackground, sendMail } from "~/services/mail.server";
+import type { Mail } from "~/services/mail.server";
 import { hashPassword, verifyPassword } from "~/services/password.server";
 import { AppError } from "~/utils/errors";
 import { parseValues } from "~/utils/forms.server";
@@ -28,6 +29,19 @@ const address = (request: Request) => clientAddress(request, env().TRUST_PROXY);
 const link = (path: string) => `${env().APP_ORIGIN}${path}`;
 
 const parse = parseValues;
+
+/** Account mail for the outbox: always sent, opt-outs do not apply. */
+const accountMail = (userId: number, mail: Mail) => ({ ...mail, kind: "account" as const, userId });
+
+/**
+ * A fresh link of `kind` and the mail that carries it, in one transaction: the link exists exactly
+ * when its mail is queued. The request never waits for SMTP (the worker sends it), so the answer's
+ * timing does not tell whether an account exists.
+ */
+async function issueLinkByMail(db: Db, user: User, kind: TokenKind, mail: (token: string) => Mail) {
+  const { token, queries } = tokenQueries(db, user.id, kind);
+  await batch(db, [...queries, outboxInsert(db, accountMail(user.id, mail(token)))]);
+}
 
 const identityProblem = "Choose a password that is not your e-mail address or your name.";
 
@@ -49,12 +63,14 @@ export async function signUp(request: Request, values: Record<string, string>) {
   if (existing) {
     // The same scrypt cost as creating an account, so the answer takes as long either way.
     await hashPassword(input.password);
-    sendInBackground(alreadyRegisteredMail(existing.email, existing.name, link("/login"), link("/reset")));
+    await queueMail(
+      db,
+      accountMail(existing.id, alreadyRegisteredMail(existing.email, existing.name, link("/login"), link("/reset"))),
+    );
     return;
   }
   const user = await createUser(db, { name: input.name, email: input.email, password: input.password });
-  const token = await issueToken(db, user.id, "verify-email");
-  sendInBackground(confirmAddressMail(user.email, user.name, link(`/verify/${token}`)));
+  await issueLinkByMail(db, user, "verify-email", (token) => confirmAddressMail(user.email, user.name, link(`/verify/${token}`)));
 }
 
 /** Sends a fresh confirmation link to an unconfirmed account; the same answer whether or not there is one. */
@@ -64,8 +80,7 @@ export async function resendConfirmation(request: Request, values: Record<string
   await enforceLimits(db, "verify", { address: address(request), account: email });
   const user = await findUserByEmail(db, email);
   if (!user || user.emailVerifiedAt || user.disabledAt) return;
-  const token = await issueToken(db, user.id, "verify-email");
-  sendInBackground(confirmAddressMail(user.email, user.name, link(`/verify/${token}`)));
+  await issueLinkByMail(db, user, "verify-email", (token) => confirmAddressMail(user.email, user.name, link(`/verify/${token}`)));
 }
 
 /** Uses up a confirmation link; false when it is unknown, used or expired. */
@@ -85,8 +100,7 @@ export async function requestPasswordReset(request: Request, values: Record<stri
   await enforceLimits(db, "reset", { address: address(request), account: email });
   const user = await findUserByEmail(db, email);
   if (!user || user.disabledAt) return;
-  const token = await issueToken(db, user.id, "reset-password");
-  sendInBackground(resetPasswordMail(user.email, user.name, link(`/reset/${token}`)));
+  await issueLinkByMail(db, user, "reset-password", (token) => resetPasswordMail(user.email, user.name, link(`/reset/${token}`)));
 }
 
 /**
@@ -114,8 +128,8 @@ export async function completePasswordReset(request: Request, token: string, val
     markEmailVerifiedQuery(db, row.userId),
     revokeUserSessionsQuery(db, row.userId),
     auditInsert(db, { actorId: row.userId, action: "user.password-reset", subjectType: "user", subjectId: row.userId }),
+    outboxInsert(db, accountMail(owner.id, passwordChangedMail(owner.email, owner.name, link("/reset")))),
   ]);
-  await sendMail(passwordChangedMail(owner.email, owner.name, link("/reset")));
 }
 
 /**
@@ -151,6 +165,6 @@ export async function changePassword(request: Request, user: User, sessionId: st
   await batch(db, [
     setPasswordHashQuery(db, user.id, await hashPassword(input.newPassword)),
     revokeUserSessionsQuery(db, user.id, sessionId),
+    outboxInsert(db, accountMail(user.id, passwordChangedMail(user.email, user.name, link("/reset")))),
   ]);
-  await sendMail(passwordChangedMail(user.email, user.name, link("/reset")));
 }

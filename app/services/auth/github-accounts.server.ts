@@ -2,6 +2,7 @@ import { batch } from "~/db/batch.server";
 import type { Db } from "~/db/client.server";
 import type { User } from "~/db/schema";
 import { auditInsert } from "~/models/audit.server";
+import { outboxInsert } from "~/models/outbox.server";
 import { revokeUserSessionsQuery } from "~/models/sessions.server";
 import { consumeToken, issueToken, peekToken, voidTokensQuery } from "~/models/user-tokens.server";
 import {
@@ -14,7 +15,9 @@ import {
   markEmailVerifiedQuery,
   normalizeEmail,
 } from "~/models/users.server";
+import { env } from "~/utils/env.server";
 import { GITHUB, type GitHubProfile } from "./github.server";
+import { unconfirmedPasswordClearedMail } from "./mails.server";
 
 export type GitHubOutcome =
   | { kind: "signed-in"; user: User }
@@ -87,7 +90,8 @@ export type ConfirmedLink = { user: User; link: PendingLink; passwordCleared: bo
  * every link mailed earlier. We chose this over refusing the link until the address is confirmed
  * by mail, because GitHub's verified address is the same proof the mail would give, and the owner
  * gets in at once; they are told on screen and by mail, and can set a new password on the account
- * page. Everything is one batch, so an account is never left confirmed with the old password.
+ * page. Everything is one batch, so an account is never left confirmed with the old password, and
+ * the mail that says so is queued exactly when it happens.
  */
 export async function confirmLink(db: Db, token: string): Promise<ConfirmedLink | null> {
   const row = await consumeToken(db, token, "link-github");
@@ -97,6 +101,8 @@ export async function confirmLink(db: Db, token: string): Promise<ConfirmedLink 
   const link = row.data as PendingLink;
   const alreadyLinked = !!(await findUserByOAuth(db, GITHUB, link.providerUserId));
   const unclaimed = isUnclaimed(user);
+  const passwordCleared = unclaimed && !!user.passwordHash;
+  const origin = env().APP_ORIGIN;
   await batch(db, [
     ...(alreadyLinked ? [] : linkOAuthAccountQueries(db, { userId: user.id, provider: GITHUB, ...link })),
     // Before the address is marked confirmed: the clearing statement only touches unconfirmed accounts.
@@ -112,9 +118,15 @@ export async function confirmLink(db: Db, token: string): Promise<ConfirmedLink 
         data: { provider: GITHUB, login: link.login, hadPassword: !!user.passwordHash },
       }),
     markEmailVerifiedQuery(db, user.id),
+    passwordCleared &&
+      outboxInsert(db, {
+        ...unconfirmedPasswordClearedMail(user.email, user.name, link.login, `${origin}/me/account`, `${origin}/reset`),
+        kind: "account",
+        userId: user.id,
+      }),
   ]);
   const fresh = (await getUserById(db, user.id)) ?? user;
-  return { user: fresh, link, passwordCleared: unclaimed && !!user.passwordHash };
+  return { user: fresh, link, passwordCleared };
 }
 
 export async function cancelLink(db: Db, token: string) {

@@ -4,7 +4,7 @@ import { env } from "~/utils/env.server";
 import { AppError, forbidden, unauthorized } from "~/utils/errors";
 import { errorResponse, pageErrorResponse } from "~/utils/http.server";
 import { can, type Permission } from "~/utils/permissions";
-import { CROSS_SITE_MESSAGE, isAllowedWrite } from "./origin.server";
+import { CROSS_SITE_MESSAGE, isAllowedWrite, isOneClickOptOut } from "./origin.server";
 import { getUser } from "./session.server";
 
 type Args = { request: Request; context?: unknown };
@@ -38,10 +38,11 @@ export async function redirectIfSignedIn(args: Args, to = "/") {
 
 /**
  * Refuses every write that did not come from our own pages, before any loader or action runs, on
- * pages, resource routes and /api alike.
+ * pages, resource routes and /api alike. The one exception is a mail's one-click opt-out (see
+ * `isOneClickOptOut`), which a signed token authorises instead.
  */
 export const crossSiteMiddleware: MiddlewareFunction<Response> = async ({ request }, next) => {
-  if (isAllowedWrite(request, env().APP_ORIGIN)) return next();
+  if (isAllowedWrite(request, env().APP_ORIGIN) || isOneClickOptOut(request)) return next();
   const refusal = new AppError(403, "cross-site", CROSS_SITE_MESSAGE);
   if (isApi(request)) return errorResponse(refusal);
   throw pageErrorResponse(refusal);

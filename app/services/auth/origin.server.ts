@@ -18,5 +18,15 @@ export function isAllowedWrite(request: Request, appOrigin: string): boolean {
   return request.headers.get("sec-fetch-site") === "same-origin";
 }
 
+/**
+ * The one address that takes writes from elsewhere: a mail's one-click opt-out (RFC 8058). Mail
+ * clients post it from their own servers or web pages, never with our Origin, and without cookies.
+ * That is safe here because the request is authorised by the HMAC-signed token in the path, not by
+ * a session: a forged cross-site post needs the token, which only the mail's recipient has, and can
+ * do no more than turn off one kind of notice for that recipient (undone in account settings).
+ */
+export const isOneClickOptOut = (request: Request) =>
+  request.method.toUpperCase() === "POST" && /^\/mail\/opt-out\/[^/]+$/.test(new URL(request.url).pathname);
+
 export const CROSS_SITE_MESSAGE =
   "This request did not come from a Torqueleaf page, so it was refused. Reload the page and send the form again.";

@@ -10,8 +10,12 @@ export type CaughtMail = {
   subject: string;
   text: string;
   html: string;
+  /** The header fields a test may check that the parsed parts do not show (List-Unsubscribe …), by lower-case name. */
+  headers: Record<string, string>;
   receivedAt: string;
 };
+
+const KEPT_HEADERS = new Set(["list-unsubscribe", "list-unsubscribe-post", "message-id"]);
 
 /**
  * An SMTP catcher: accepts every message on 127.0.0.1 and keeps the last few hundred in memory,
@@ -35,6 +39,11 @@ export async function startMailFake(options: { smtpPort: number; httpPort: numbe
             subject: parsed.subject ?? "",
             text: parsed.text ?? "",
             html: typeof parsed.html === "string" ? parsed.html : "",
+            headers: Object.fromEntries(
+              parsed.headerLines
+                .filter((h) => KEPT_HEADERS.has(h.key))
+                .map((h) => [h.key, h.line.slice(h.line.indexOf(":") + 1).trim()]),
+            ),
             receivedAt: new Date().toISOString(),
           });
           messages.length = Math.min(messages.length, 500);
