@@ -4,6 +4,7 @@ import type { ListChange, RevisionDiff, StepDiff, TextPart, ValueChange } from "
 /** "12 minutes", "5 hours", "3 days": how long a revision has waited, in the largest whole unit. */
 export function waitingWords(minutes: number): string {
   const unit = (n: number, word: string) => `${n} ${word}${n === 1 ? "" : "s"}`;
+  if (minutes < 1) return "less than a minute";
   if (minutes < 60) return unit(minutes, "minute");
   if (minutes < 48 * 60) return unit(Math.floor(minutes / 60), "hour");
   return unit(Math.floor(minutes / (24 * 60)), "day");
