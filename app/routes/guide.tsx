@@ -80,7 +80,7 @@ function readGuide(json: string): ShownGuide {
 }
 
 /** What a reader is told at the address of a guide an editor unpublished. */
-export function unpublishedMessage(gone: { title: string; reason: string | null; at: Date | null }) {
+function unpublishedMessage(gone: { title: string; reason: string | null; at: Date | null }) {
   const when = gone.at ? ` on ${formatDate(gone.at)}` : "";
   return `"${gone.title}" was unpublished${when}. The editor's reason: ${gone.reason ?? "not given"}`;
 }
