@@ -37,6 +37,11 @@ export default [
   route("workbench/guides/:id", "routes/workbench.guide.tsx"),
   route("workbench/guides/:id/preview", "routes/workbench.guide-preview.tsx"),
   route("api/me", "routes/api.me.ts"),
+  // The review desk: editors review, sign off, decide and unpublish.
+  route("review", "routes/review.tsx"),
+  route("review/:revisionId", "routes/review.revision.tsx"),
+  route("api/review/queue", "routes/api.review-queue.ts"),
+  route("api/review/:revisionId", "routes/api.review.ts"),
   // Any other /api address answers in the API's JSON error shape, not with the HTML 404 page.
   route("api/*", "routes/api.not-found.ts"),
   route("*", "routes/not-found.tsx"),

@@ -9,6 +9,11 @@ const COPY: Record<number, { title: string; body: string }> = {
     body: "The address may be mistyped, or the guide may have been unpublished while its author revises it.",
   },
   405: { title: "Not something this address does", body: "This page can be opened, and its forms sent, but not that." },
+  409: { title: "That changed a moment ago", body: "Someone else acted on this first. Reload the page to see where it stands." },
+  410: {
+    title: "This guide was taken out of the Library",
+    body: "An editor unpublished it. Follow the vehicle maker's instructions until a reviewed revision is back.",
+  },
   415: { title: "That form arrived in a shape we cannot read", body: "Send it again from the page itself." },
   500: { title: "Something went wrong on our side", body: "The error has been logged. Try again in a moment." },
 };

@@ -1,13 +1,24 @@
 import { getDb } from "~/db/client.server";
 import { getPublishedGuide } from "~/models/library.server";
+import { unpublishedGuide } from "~/models/review-desk.server";
 import { getStorage } from "~/services/storage.server";
 import { AppError } from "~/utils/errors";
 import { apiHandler, publicJson } from "~/utils/http.server";
 import type { Route } from "./+types/api.guide";
 
 export const loader = apiHandler(async ({ params, request }: Route.LoaderArgs) => {
-  const guide = await getPublishedGuide(await getDb(), getStorage(), params.slug);
-  if (!guide) throw new AppError(404, "not-found", `No published guide is called "${params.slug}".`);
+  const db = await getDb();
+  const guide = await getPublishedGuide(db, getStorage(), params.slug);
+  if (!guide) {
+    const gone = await unpublishedGuide(db, params.slug);
+    if (gone) {
+      throw new AppError(410, "unpublished", `"${gone.title}" was taken out of the Library by an editor.`, undefined, {
+        reason: gone.reason,
+        unpublishedAt: gone.at,
+      });
+    }
+    throw new AppError(404, "not-found", `No published guide is called "${params.slug}".`);
+  }
   const { id: _id, ...rest } = guide;
   return publicJson(request, {
     ...rest,

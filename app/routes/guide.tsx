@@ -1,13 +1,15 @@
 import { GuideArticle, type ShownGuide, stepBodyId } from "~/components/guide-article";
 import { getDb } from "~/db/client.server";
 import { getPublishedGuide, type PublishedGuide } from "~/models/library.server";
+import { unpublishedGuide } from "~/models/review-desk.server";
 import { documentFragmentsContext } from "~/services/http/document-fragments.server";
 import { isDocumentRequest } from "~/services/http/request-kind.server";
 import { getStorage } from "~/services/storage.server";
 import { BoundedCache } from "~/utils/bounded-cache";
 import { env } from "~/utils/env.server";
 import { keepUnitsTogetherInHtml } from "~/utils/format";
-import { notFound } from "~/utils/errors";
+import { AppError, notFound } from "~/utils/errors";
+import { formatDate } from "~/utils/format";
 import { pageErrorResponse } from "~/utils/http.server";
 import { READER_PAGE } from "~/utils/reader-page";
 import type { Route } from "./+types/guide";
@@ -77,9 +79,20 @@ function readGuide(json: string): ShownGuide {
   return guide;
 }
 
+/** What a reader is told at the address of a guide an editor unpublished. */
+function unpublishedMessage(gone: { title: string; reason: string | null; at: Date | null }) {
+  const when = gone.at ? ` on ${formatDate(gone.at)}` : "";
+  return `"${gone.title}" was unpublished${when}. The editor's reason: ${gone.reason ?? "not given"}`;
+}
+
 export async function loader({ params, request, context }: Route.LoaderArgs) {
-  const found = await getPublishedGuide(await getDb(), getStorage(), params.slug);
-  if (!found) throw pageErrorResponse(notFound(`A published guide called "${params.slug}"`));
+  const db = await getDb();
+  const found = await getPublishedGuide(db, getStorage(), params.slug);
+  if (!found) {
+    const gone = await unpublishedGuide(db, params.slug);
+    if (gone) throw pageErrorResponse(new AppError(410, "unpublished", unpublishedMessage(gone)));
+    throw pageErrorResponse(notFound(`A published guide called "${params.slug}"`));
+  }
   // The steps' HTML goes into the markup once; a document's data leaves it out (DocumentHtml).
   const bodies = found.steps.map((step) => stepHtmlShown(step.html));
   const document = isDocumentRequest(request);

@@ -25,6 +25,7 @@ import { type Finding, fittingPowertrains, runSafetyRules } from "~/engine/rules
 import { publicCatalogue } from "~/models/catalogue.server";
 import { readDraft } from "~/models/drafts.server";
 import { readCatalogue } from "~/models/reader-cache.server";
+import { commentsForDraft } from "~/models/review.server";
 import { requireUser } from "~/services/auth/guards.server";
 import { forPage } from "~/utils/http.server";
 import { formatDateTime } from "~/utils/format";
@@ -44,7 +45,8 @@ export async function loader(args: Route.LoaderArgs) {
     const view = await readDraft(db, user, Number.isSafeInteger(guideId) && guideId > 0 ? guideId : -1);
     const makes = await readCatalogue(db);
     const catalogue = publicCatalogue(makes);
-    return { view, catalogue, mine: view.guide.authorId === user.id };
+    const reviewComments = await commentsForDraft(db, view.guide.id, view.revision.number);
+    return { view, catalogue, mine: view.guide.authorId === user.id, reviewComments };
   });
 }
 
@@ -474,6 +476,16 @@ export default function GuideEditor({ loaderData }: Route.ComponentProps) {
         <div className="mb-6 rounded-xl border-l-4 border-z-warning bg-white p-4 shadow-sm">
           <p className="font-semibold">The editor asked for changes:</p>
           <p className="mt-1 whitespace-pre-wrap">{view.reviewNote}</p>
+          {loaderData.reviewComments.length ? (
+            <ul aria-label="The editor's comments" className="mt-3 space-y-1 border-t border-rule pt-3 text-sm">
+              {loaderData.reviewComments.map((c) => (
+                <li key={c.id} className="whitespace-pre-wrap">
+                  <span className="font-semibold">{c.stepIndex === null ? "Whole guide" : `Step ${c.stepIndex + 1}`}:</span>{" "}
+                  {c.body}
+                </li>
+              ))}
+            </ul>
+          ) : null}
         </div>
       ) : null}
       {kept ? (

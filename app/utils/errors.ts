@@ -1,5 +1,5 @@
 /** The statuses a user can cause; anything else is the server's fault and stays a 500. */
-export type ErrorStatus = 400 | 401 | 403 | 404 | 405 | 409 | 413 | 415 | 422 | 429;
+export type ErrorStatus = 400 | 401 | 403 | 404 | 405 | 409 | 410 | 413 | 415 | 422 | 429;
 
 /**
  * The one error the models and services throw for something a user can act on. Routes turn it

@@ -21,6 +21,8 @@ const fixtures = {
   /** The demo author's draft (the seed's seventh guide) and another author's published guide (its second). */
   ownGuideId: 7,
   otherGuideId: 2,
+  /** The revision in review (the seed's sixth guide's first revision, by the demo author). */
+  inReviewRevisionId: 6,
 };
 const guidePath = (suffix: string) => (who: Who) =>
   `/api/guides/${who === "authorOther" ? fixtures.otherGuideId : fixtures.ownGuideId}/${suffix}`;
@@ -167,6 +169,30 @@ const MATRIX: Record<string, Probe[]> = {
   "/workbench/guides/:id/preview": [
     { path: editorPath("/preview"), expect: { ...only(["editor", "admin"], 200, 403, 302), authorOwn: 200 } },
   ],
+  // The review desk: editors and admins only; a decision without an intent is refused by field.
+  "/review": [{ path: "/review", expect: only(["editor", "admin"], 200, 403, 302) }],
+  "/review/:revisionId": [
+    { path: `/review/${fixtures.inReviewRevisionId}`, expect: only(["editor", "admin"], 200, 403, 302) },
+    {
+      method: "POST",
+      path: `/review/${fixtures.inReviewRevisionId}`,
+      form: { intent: "none" },
+      expect: only(["editor", "admin"], 400, 403, 302),
+    },
+  ],
+  "/api/review/queue": [
+    { path: "/api/review/queue", expect: only(["editor", "admin"], 200, 403, 401) },
+    { method: "POST", path: "/api/review/queue", json: {}, expect: all(405) },
+  ],
+  "/api/review/:revisionId": [
+    { path: `/api/review/${fixtures.inReviewRevisionId}`, expect: only(["editor", "admin"], 200, 403, 401) },
+    {
+      method: "POST",
+      path: `/api/review/${fixtures.inReviewRevisionId}`,
+      json: {},
+      expect: only(["editor", "admin"], 400, 403, 401),
+    },
+  ],
   "/api/*": [
     { path: "/api/no-such-endpoint", expect: all(404) },
     { method: "POST", path: "/api/no-such-endpoint", json: {}, expect: all(404) },
@@ -199,6 +225,15 @@ beforeAll(async () => {
   const view = (await own.json()) as { guide?: { slug: string; state: string } };
   if (view.guide?.slug !== "fjell-f3-hardwired-dash-camera" || view.guide.state !== "draft") {
     throw new Error(`guide ${fixtures.ownGuideId} is not the demo author's draft: ${JSON.stringify(view).slice(0, 200)}`);
+  }
+  const review = await fetch(`${origin}/api/review/${fixtures.inReviewRevisionId}`, {
+    headers: { cookie: sessions.get("editor") ?? "" },
+  });
+  const desk = (await review.json()) as { revision?: { state: string; guide: { slug: string } } };
+  if (desk.revision?.guide.slug !== fixtures.unpublishedSlug || desk.revision.state !== "in-review") {
+    throw new Error(
+      `revision ${fixtures.inReviewRevisionId} is not the demo revision in review: ${JSON.stringify(desk).slice(0, 200)}`,
+    );
   }
 });
 

@@ -33,6 +33,8 @@ export const fixtures = {
   badToken: "not-a-real-token-0123456789abcdefghijklmnop",
   /** The demo author's draft: the seventh guide the seed writes (content-samples/guides/index.ts). */
   draftGuideId: 7,
+  /** The demo revision in review (the seed's sixth guide's first revision). */
+  inReviewRevisionId: 6,
 };
 
 /** One URL per route pattern, with its parameters filled in; `photo` is looked up from the running app. */
@@ -73,6 +75,10 @@ export const ROUTE_PATHS: Record<string, (photo: string) => string[]> = {
   "/workbench/guides/:id": () => ["/workbench/guides/1", "/workbench/guides/not-a-number"],
   "/workbench/guides/:id/preview": () => ["/workbench/guides/1/preview"],
   "/api/me": () => ["/api/me"],
+  "/review": () => ["/review", "/review?vehicle=norvik.fjell&blocking=1"],
+  "/review/:revisionId": () => [`/review/${fixtures.inReviewRevisionId}`, "/review/not-a-number"],
+  "/api/review/queue": () => ["/api/review/queue"],
+  "/api/review/:revisionId": () => [`/api/review/${fixtures.inReviewRevisionId}`, "/api/review/not-a-number"],
   "/api/*": () => ["/api/no-such-endpoint"],
   "/*": () => ["/no-such-page"],
 };
