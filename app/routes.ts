@@ -30,6 +30,8 @@ export default [
   route("me/account", "routes/me.account.tsx"),
   route("contributor-terms", "routes/contributor-terms.tsx"),
   route("admin/users", "routes/admin.users.tsx"),
+  route("admin/audit", "routes/admin.audit.tsx"),
+  route("admin/catalogue", "routes/admin.catalogue.tsx"),
   // Authoring.
   route("workbench", "routes/workbench.tsx"),
   route("workbench/guides/new", "routes/workbench.guides.new.tsx"),

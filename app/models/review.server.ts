@@ -125,7 +125,16 @@ export async function startNextRevision(db: Db, guideId: number, actor: Actor) {
   if (!guide.publishedRevisionId) throw new AppError(409, "wrong-state", "This guide has no revision to continue from.");
   const number = await nextRevisionNumber(db, guideId);
   try {
-    await runBatch(db, copyRevisionQueries(db, guide.publishedRevisionId, guideId, number, actor.id));
+    await runBatch(db, [
+      ...copyRevisionQueries(db, guide.publishedRevisionId, guideId, number, actor.id),
+      auditInsert(db, {
+        actorId: actor.id,
+        action: "revision.start",
+        guideId,
+        subjectType: "revision",
+        subjectId: sql`(SELECT id FROM revisions WHERE guide_id = ${guideId} AND number = ${number})`,
+      }),
+    ]);
   } catch (error) {
     // A second tab that started the same copy a moment earlier wins; this one joins its draft.
     const working = (await getGuideById(db, guideId))?.workingRevisionId;
@@ -171,6 +180,7 @@ export async function submitRevision(db: Db, guideId: number, actor: Actor, chan
     auditInsert(db, {
       actorId: actor.id,
       action: "revision.submit",
+      guideId,
       subjectType: "revision",
       subjectId: revisionId,
       reason: summary || null,
@@ -218,7 +228,7 @@ export async function acknowledgeFinding(
   actor: Actor,
   input: Pick<AcknowledgeInput, "findingId" | "note">,
 ) {
-  await reviewableRevision(db, revisionId, actor);
+  const revision = await reviewableRevision(db, revisionId, actor);
   const finding = await db.query.findings.findFirst({
     where: and(eq(findings.id, input.findingId), eq(findings.revisionId, revisionId)),
   });
@@ -234,6 +244,7 @@ export async function acknowledgeFinding(
     auditInsert(db, {
       actorId: actor.id,
       action: "finding.acknowledge",
+      guideId: revision.guideId,
       subjectType: "finding",
       subjectId: finding.id,
       reason: input.note,
@@ -251,7 +262,13 @@ export async function signOffCaution(db: Db, revisionId: number, actor: Actor, i
   if (caution.signedOffBy) return { ok: true };
   await runBatch(db, [
     db.insert(cautionSignoffs).values({ calloutId: caution.id, editorId: actor.id }),
-    auditInsert(db, { actorId: actor.id, action: "caution.sign-off", subjectType: "callout", subjectId: caution.id }),
+    auditInsert(db, {
+      actorId: actor.id,
+      action: "caution.sign-off",
+      guideId: revision.guideId,
+      subjectType: "callout",
+      subjectId: caution.id,
+    }),
   ]);
   return { ok: true };
 }
@@ -272,6 +289,7 @@ export async function requestChanges(db: Db, revisionId: number, actor: Actor, i
     auditInsert(db, {
       actorId: actor.id,
       action: "revision.request-changes",
+      guideId: guide.id,
       subjectType: "revision",
       subjectId: revisionId,
       reason: input.note,
@@ -319,7 +337,13 @@ export async function approveRevision(db: Db, revisionId: number, actor: Actor) 
       })
       .where(eq(guides.id, guide.id)),
     db.insert(reviews).values({ revisionId, editorId: actor.id, decision: "approve" }),
-    auditInsert(db, { actorId: actor.id, action: "revision.approve-publish", subjectType: "revision", subjectId: revisionId }),
+    auditInsert(db, {
+      actorId: actor.id,
+      action: "revision.approve-publish",
+      guideId: guide.id,
+      subjectType: "revision",
+      subjectId: revisionId,
+    }),
   ]);
   return { ok: true };
 }
