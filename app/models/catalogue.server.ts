@@ -301,7 +301,10 @@ export async function addMake(db: Db, actor: Actor, input: MakeFields) {
   const slug = await freeSlug(input.name, async (s) => !!(await db.query.makes.findFirst({ where: eq(makes.slug, s) })));
   await catalogueBatch(db, [
     db.insert(makes).values({ slug, name: input.name }),
-    audit(db, actor, "make-add", "make", sql`(SELECT id FROM makes WHERE slug = ${slug})`, { label: input.name, values: input }),
+    audit(db, actor, "make-add", "make", sql`(SELECT id FROM makes WHERE slug = ${slug})`, {
+      label: input.name,
+      values: { name: input.name },
+    }),
   ]);
   return { label: input.name };
 }
@@ -309,7 +312,7 @@ export async function addMake(db: Db, actor: Actor, input: MakeFields) {
 export async function editMake(db: Db, actor: Actor, id: number, input: MakeFields) {
   assertManages(actor);
   const before = await makeRow(db, id);
-  const changes = changesOf(before, input);
+  const changes = changesOf(before, { name: input.name });
   if (!Object.keys(changes).length) return nothingChanged;
   await assertNameFree(
     db,
@@ -319,7 +322,7 @@ export async function editMake(db: Db, actor: Actor, id: number, input: MakeFiel
     `Make name: there is a make called ${input.name} already`,
   );
   await catalogueBatch(db, [
-    db.update(makes).set(input).where(eq(makes.id, id)),
+    db.update(makes).set({ name: input.name }).where(eq(makes.id, id)),
     audit(db, actor, "make-edit", "make", id, { label: input.name, changes }),
   ]);
   return { changed: true as const, label: input.name };
@@ -358,7 +361,7 @@ export async function addModel(db: Db, actor: Actor, makeId: number, input: Mode
     db.insert(models).values({ makeId, slug, name: input.name, bodyStyle: input.bodyStyle ?? null }),
     audit(db, actor, "model-add", "model", sql`(SELECT id FROM models WHERE make_id = ${makeId} AND slug = ${slug})`, {
       label,
-      values: input,
+      values: { name: input.name, bodyStyle: input.bodyStyle ?? null },
     }),
   ]);
   return { label };

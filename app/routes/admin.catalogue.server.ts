@@ -21,7 +21,6 @@ import { requirePermission } from "~/services/auth/guards.server";
 import { AppError } from "~/utils/errors";
 import { formFailure, parseValues, readForm, redirectWithFlash } from "~/utils/forms.server";
 import type { FormValues } from "~/utils/forms";
-import { errorResponse } from "~/utils/http.server";
 import type { Actor } from "~/utils/permissions";
 import { schemaKeys } from "~/utils/validation";
 
@@ -34,28 +33,28 @@ export async function catalogueLoader(args: Args) {
   return { makes, used: Object.fromEntries(used) as Record<number, number> };
 }
 
-/** The change one intent asks for, and the words of the message after it. */
-async function apply(actor: Actor, input: CatalogueIntent): Promise<string> {
+/** The change one intent asks for (from the page or `POST /api/catalogue`), and the words of the message after it. */
+export async function applyCatalogueChange(actor: Actor, input: CatalogueIntent): Promise<string> {
   const db = await getDb();
   const edited = (r: { changed: boolean; label?: string }, what: string) =>
     r.changed ? `${r.label}: ${what} saved.` : "Nothing changed.";
   switch (input.intent) {
     case "add-make":
-      return `${(await addMake(db, actor, input)).label} added.`;
+      return `${(await addMake(db, actor, { name: input.name })).label} added.`;
     case "edit-make":
-      return edited(await editMake(db, actor, input.id, input), "make");
+      return edited(await editMake(db, actor, input.id, { name: input.name }), "make");
     case "delete-make":
       return `${(await deleteMake(db, actor, input.id)).label} deleted.`;
     case "add-model":
-      return `${(await addModel(db, actor, input.makeId, input)).label} added.`;
+      return `${(await addModel(db, actor, input.makeId, { name: input.name, bodyStyle: input.bodyStyle })).label} added.`;
     case "edit-model":
       return edited(await editModel(db, actor, input.id, input), "model");
     case "delete-model":
       return `${(await deleteModel(db, actor, input.id)).label} deleted.`;
     case "add-generation":
-      return `${(await addGeneration(db, actor, input.modelId, input)).label} added.`;
+      return `${(await addGeneration(db, actor, input.modelId, generationOf(input))).label} added.`;
     case "edit-generation":
-      return edited(await editGeneration(db, actor, input.id, input), "generation");
+      return edited(await editGeneration(db, actor, input.id, generationOf(input)), "generation");
     case "delete-generation":
       return `${(await deleteGeneration(db, actor, input.id)).label} deleted.`;
     case "add-variant":
@@ -77,12 +76,16 @@ async function apply(actor: Actor, input: CatalogueIntent): Promise<string> {
   }
 }
 
-const wantsJson = (request: Request) => /application\/json/i.test(request.headers.get("accept") ?? "");
+const generationOf = (input: { name: string; firstYear: number; lastYear?: number }) => ({
+  name: input.name,
+  firstYear: input.firstYear,
+  lastYear: input.lastYear,
+});
 
 /**
  * Every catalogue change, one intent per form. A refusal comes back to the page with its message
- * and what was typed (400 by field, 409 for a used variant, with the guides named); a script that
- * asks for JSON gets the API's error shape instead, the guides in `error.guides`.
+ * and what was typed: 400 by field, 409 for a name taken, a level not empty, or a used variant
+ * (the guides named). `POST /api/catalogue` takes the same intents as JSON.
  */
 export async function catalogueAction(args: Args) {
   const admin = await requirePermission(args, "manage:catalogue");
@@ -90,12 +93,10 @@ export async function catalogueAction(args: Args) {
   try {
     values = await readForm(args.request);
     const input = parseValues(catalogueIntentSchema, values);
-    const text = await apply(admin, input);
-    if (wantsJson(args.request)) return Response.json({ ok: true, message: text });
+    const text = await applyCatalogueChange(admin, input);
     return redirectWithFlash("/admin/catalogue", { tone: "success", text });
   } catch (error) {
     if (!(error instanceof AppError)) throw error;
-    if (wantsJson(args.request)) return errorResponse(error);
     return formFailure(error, values, schemaKeys(catalogueIntentSchema));
   }
 }
