@@ -53,7 +53,8 @@ export function AuditList({
             ) : null}
             {entry.reason ? (
               <p className="mt-1 break-words border-l-2 border-brass-500 pl-2 text-ink">
-                <span className="text-ink-soft">Why: </span>
+                {/* A submission's note is the author's change summary; every other note says why. */}
+                <span className="text-ink-soft">{entry.action === "revision.submit" ? "What changed: " : "Why: "}</span>
                 {entry.reason}
               </p>
             ) : null}

@@ -187,6 +187,12 @@ function ChangeForm({
   );
 }
 
+const buttonClass = {
+  quiet: "border-rule text-spruce-800 hover:bg-paper-deep",
+  danger: "border-z-danger/60 text-z-danger hover:bg-z-danger/10",
+};
+
+/** A one-click change (retire, offer again, delete): a small outlined button, so the page is not a wall of red. */
 function OneButton({
   intent,
   id,
@@ -204,9 +210,14 @@ function OneButton({
     <Form method="post" className="inline">
       <input type="hidden" name="formKey" value={formKey} />
       <input type="hidden" name="id" value={id} />
-      <SubmitButton name="intent" value={intent} tone={tone}>
+      <button
+        type="submit"
+        name="intent"
+        value={intent}
+        className={`inline-flex min-h-11 items-center rounded-md border bg-white px-3 text-sm font-semibold ${buttonClass[tone]}`}
+      >
         {label}
-      </SubmitButton>
+      </button>
     </Form>
   );
 }
@@ -218,8 +229,10 @@ const yearHint = `Years from ${FIRST_MODEL_YEAR} to ${lastModelYear()}.`;
 function GenerationFields({ form, failure, g }: { form: string; failure: FormFailure | null; g?: Generation }) {
   return (
     <>
-      <TextInput form={form} name="name" label="Generation name" value={g?.name} failure={failure} maxLength={40} />
-      <div className="grid grid-cols-2 gap-3">
+      <div className="sm:col-span-2">
+        <TextInput form={form} name="name" label="Generation name" value={g?.name} failure={failure} maxLength={40} />
+      </div>
+      <div className="grid grid-cols-2 gap-3 sm:col-span-2">
         <TextInput
           form={form}
           name="firstYear"
@@ -361,6 +374,7 @@ function LevelHead({
   failure,
   children,
   as: Heading,
+  empty,
 }: {
   formKey: string;
   title: ReactNode;
@@ -371,6 +385,8 @@ function LevelHead({
   failure: FormFailure | null;
   children: ReactNode;
   as: "h2" | "h3" | "h4";
+  /** Only an empty level can go; until then the button is not offered (the server refuses it anyway). */
+  empty: boolean;
 }) {
   const mine = failureFor(failure, formKey);
   const size = { h2: "text-2xl", h3: "text-xl", h4: "text-lg" }[Heading];
@@ -393,7 +409,7 @@ function LevelHead({
         >
           {children}
         </ChangeForm>
-        <OneButton intent={deleteIntent} id={id} label={`Delete the ${level}`} tone="danger" formKey={formKey} />
+        {empty ? <OneButton intent={deleteIntent} id={id} label={`Delete the ${level}`} tone="danger" formKey={formKey} /> : null}
       </div>
     </div>
   );
@@ -426,7 +442,7 @@ export default function AdminCatalogue({ loaderData, actionData }: Route.Compone
               key={make.id}
               id={makeKey}
               aria-label={make.name}
-              className="rounded-xl border border-rule bg-white p-4 shadow-sm sm:p-5"
+              className="rounded-xl border border-rule bg-white p-3 shadow-sm sm:p-5"
             >
               <LevelHead
                 formKey={makeKey}
@@ -437,6 +453,7 @@ export default function AdminCatalogue({ loaderData, actionData }: Route.Compone
                 id={make.id}
                 failure={failure}
                 as="h2"
+                empty={make.models.length === 0}
               >
                 <TextInput
                   form={makeKey}
@@ -452,7 +469,7 @@ export default function AdminCatalogue({ loaderData, actionData }: Route.Compone
                 {make.models.map((model) => {
                   const modelKey = `model-${model.id}`;
                   return (
-                    <div key={model.id} id={modelKey} className="border-l-4 border-spruce-100 pl-3 sm:pl-4">
+                    <div key={model.id} id={modelKey} className="border-spruce-100 sm:border-l-4 sm:pl-4">
                       <LevelHead
                         formKey={modelKey}
                         title={
@@ -469,6 +486,7 @@ export default function AdminCatalogue({ loaderData, actionData }: Route.Compone
                         id={model.id}
                         failure={failure}
                         as="h3"
+                        empty={model.generations.length === 0}
                       >
                         <TextInput
                           form={modelKey}
@@ -493,7 +511,7 @@ export default function AdminCatalogue({ loaderData, actionData }: Route.Compone
                         {model.generations.map((g) => {
                           const genKey = `generation-${g.id}`;
                           return (
-                            <div key={g.id} id={genKey} className="rounded-lg border border-rule p-3">
+                            <div key={g.id} id={genKey} className="rounded-lg border border-rule p-2 sm:p-3">
                               <LevelHead
                                 formKey={genKey}
                                 title={
@@ -510,6 +528,7 @@ export default function AdminCatalogue({ loaderData, actionData }: Route.Compone
                                 id={g.id}
                                 failure={failure}
                                 as="h4"
+                                empty={g.variants.length === 0}
                               >
                                 <GenerationFields form={genKey} failure={editFailure(genKey)} g={g} />
                               </LevelHead>

@@ -81,7 +81,7 @@ describe("/admin/audit", () => {
     expect(text).toContain("Signed off a caution");
     expect(text).toContain(`${editor.name}`);
     expect(text).toContain("Approved and published revision 1");
-    expect(text).toContain("Why: Second revision: moved the fuse holder");
+    expect(text).toContain("What changed: First published revision: the fuse holder on the battery-tray stud");
     expect(text).not.toContain("Accepted the contributor terms");
     const { auditLog } = await import("~/db/schema");
     const [{ n }] = await (await db()).select({ n: count() }).from(auditLog).where(eq(auditLog.guideId, lamps.id));

@@ -57,7 +57,7 @@ describe("the guide page's review line and revision history", () => {
     expect(page).toContain("Revision history");
     expect(page).toContain(`Revision 1 · ${formatDate(revision.publishedAt!)}`);
     // The demo guide's change summary (content-samples/guides/kestrel-hood-auxiliary-lamps.ts).
-    expect(page).toContain("moved the fuse holder to the battery-tray stud");
+    expect(page).toContain("the fuse holder on the battery-tray stud");
 
     const api = (await (await reader.get(`/api/guides/${SLUG}`)).json()) as ApiGuide;
     expect(api.revision.number).toBe(1);
@@ -98,13 +98,13 @@ describe("the guide page's review line and revision history", () => {
     expect(history.indexOf("Revision 2")).toBeGreaterThan(-1);
     expect(history.indexOf("Revision 2")).toBeLessThan(history.indexOf("Revision 1"));
     expect(history).toContain("Added the torque for the hinge bolts in lbf·ft.");
-    expect(history).toContain("moved the fuse holder to the battery-tray stud");
+    expect(history).toContain("the fuse holder on the battery-tray stud");
 
     const api = (await (await reader.get(`/api/guides/${SLUG}`)).json()) as ApiGuide;
     expect(api.revision.number).toBe(2);
     expect(api.history.map((h) => [h.number, h.changeSummary])).toEqual([
       [2, "Added the torque for the hinge bolts in lbf·ft."],
-      [1, expect.stringContaining("moved the fuse holder")],
+      [1, expect.stringContaining("the fuse holder on the battery-tray stud")],
     ]);
 
     // The guide's audit history has the new revision's steps, each with the guide.
