@@ -120,16 +120,7 @@ export function GuideArticle({ guide, url, print }: { guide: ShownGuide; url: st
               ) : (
                 "Not reviewed yet · "
               )}
-              {guide.history?.length ? (
-                <a
-                  href="#history"
-                  className="whitespace-nowrap underline decoration-rule underline-offset-2 hover:decoration-current"
-                >
-                  revision {guide.revision.number}
-                </a>
-              ) : (
-                <span className="whitespace-nowrap">revision {guide.revision.number}</span>
-              )}
+              <span className="whitespace-nowrap">revision {guide.revision.number}</span>
             </dd>
           </div>
         </dl>
