@@ -31,6 +31,8 @@ export default [
   route("mail/opt-out/:token", "routes/mail.opt-out.tsx"),
   route("contributor-terms", "routes/contributor-terms.tsx"),
   route("admin/users", "routes/admin.users.tsx"),
+  route("admin/audit", "routes/admin.audit.tsx"),
+  route("admin/catalogue", "routes/admin.catalogue.tsx"),
   // Authoring.
   route("workbench", "routes/workbench.tsx"),
   route("workbench/guides/new", "routes/workbench.guides.new.tsx"),

@@ -20,6 +20,8 @@ const MENU: { to: string; label: string; permission?: string; role?: string }[] 
   { to: "/review", label: "Review desk", permission: "review:revision:any" },
   { to: "/contributor-terms", label: "Write guides for Torqueleaf", role: "reader" },
   { to: "/admin/users", label: "Users and roles", permission: "manage:users" },
+  { to: "/admin/catalogue", label: "Vehicle catalogue", permission: "manage:catalogue" },
+  { to: "/admin/audit", label: "Audit log", permission: "read:audit" },
 ];
 
 function UserMenu({ user, permissions }: { user: NonNullable<RootData["user"]>; permissions: string[] }) {

@@ -19,8 +19,10 @@ import { CATEGORY_LABELS, DIFFICULTY_LABELS, type Category } from "~/utils/vocab
 type Photo = PublishedGuide["steps"][number]["photos"][number];
 
 /** The guide as the page shows it; a document's steps may come without their HTML (see DocumentHtml). */
-export type ShownGuide = Omit<PublishedGuide, "steps"> & {
+export type ShownGuide = Omit<PublishedGuide, "steps" | "history"> & {
   steps: (Omit<PublishedGuide["steps"][number], "html"> & { html: string | undefined })[];
+  /** The published revisions, newest first; a draft's preview has none. */
+  history?: PublishedGuide["history"];
 };
 
 /** The id of a step's text in the page: where the browser finds it again on hydration. */
@@ -105,17 +107,20 @@ export function GuideArticle({ guide, url, print }: { guide: ShownGuide; url: st
           </div>
           {/* On paper, and in the print view, the masthead above the title gives the revision. */}
           <div className={print ? "hidden" : "screen-only"}>
-            <dt className="inline text-ink-soft">Revision </dt>
+            <dt className="sr-only">Review </dt>
             <dd className="inline font-medium">
-              {guide.revision.number}
               {guide.revision.reviewedAt ? (
                 <>
-                  , reviewed{" "}
+                  Safety-reviewed by an editor on{" "}
                   <time dateTime={isoDateTime(guide.revision.reviewedAt)} className="whitespace-nowrap">
                     {formatDate(guide.revision.reviewedAt)}
-                  </time>
+                  </time>{" "}
+                  ·{" "}
                 </>
-              ) : null}
+              ) : (
+                "Not reviewed yet · "
+              )}
+              <span className="whitespace-nowrap">revision {guide.revision.number}</span>
             </dd>
           </div>
         </dl>
@@ -197,7 +202,43 @@ export function GuideArticle({ guide, url, print }: { guide: ShownGuide; url: st
           </ol>
         </div>
       </div>
+      {guide.history?.length ? <RevisionHistory history={guide.history} /> : null}
       <PrintFooter title={guide.title} url={url} revision={guide.revision} onScreen={print} />
     </article>
+  );
+}
+
+/** What changed in each published revision, newest first: readers see how the guide has been kept. */
+function RevisionHistory({ history }: { history: NonNullable<ShownGuide["history"]> }) {
+  return (
+    <section aria-labelledby="history" className="mt-12 max-w-3xl border-t border-rule pt-6 print:break-inside-avoid">
+      <h2 id="history" className="scroll-mt-6 font-serif text-xl font-semibold text-spruce-900">
+        Revision history
+      </h2>
+      <p className="mt-1 text-sm text-ink-soft">Each revision was safety-reviewed by an editor before it was published.</p>
+      <ol className="mt-3 space-y-3">
+        {history.map((entry) => {
+          const when = entry.publishedAt ?? entry.reviewedAt;
+          return (
+            <li key={entry.number} className="text-sm">
+              <p>
+                <span className="font-semibold">Revision {entry.number}</span>
+                {when ? (
+                  <>
+                    {" · "}
+                    <time dateTime={isoDateTime(when)} className="whitespace-nowrap text-ink-soft">
+                      {formatDate(when)}
+                    </time>
+                  </>
+                ) : null}
+              </p>
+              <p className="mt-0.5 break-words">
+                {entry.changeSummary ? keepUnitsTogether(entry.changeSummary) : "No summary given."}
+              </p>
+            </li>
+          );
+        })}
+      </ol>
+    </section>
   );
 }

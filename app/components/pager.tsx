@@ -16,13 +16,13 @@ export function Pager({
   return (
     <nav aria-label="Pages" className={`${className} flex items-center gap-2 text-sm`}>
       {page > 1 ? (
-        <Link to={href(page - 1)} className="rounded-md border border-rule px-3 py-1.5">
+        <Link to={href(page - 1)} className="inline-flex min-h-11 items-center rounded-md border border-rule px-3">
           Previous
         </Link>
       ) : null}
       <span className="text-ink-soft">{`Page ${page} of ${pages}`}</span>
       {page < pages ? (
-        <Link to={href(page + 1)} className="rounded-md border border-rule px-3 py-1.5">
+        <Link to={href(page + 1)} className="inline-flex min-h-11 items-center rounded-md border border-rule px-3">
           Next
         </Link>
       ) : null}

@@ -64,7 +64,13 @@ export async function createGuide(db: Db, actor: Actor, input: GuideMetaInput, o
       .update(guides)
       .set({ workingRevisionId: sql`(SELECT id FROM revisions WHERE guide_id = ${guideId} AND number = 1)` })
       .where(eq(guides.slug, slug)),
-    auditInsert(db, { actorId: authorId, action: "guide.create", subjectType: "guide", subjectId: slug }),
+    auditInsert(db, {
+      actorId: authorId,
+      action: "guide.create",
+      subjectType: "guide",
+      subjectId: slug,
+      guideId: sql`${guideId}`,
+    }),
   ]);
   const guide = await db.query.guides.findFirst({ where: eq(guides.slug, slug) });
   if (!guide?.workingRevisionId) throw new Error("guide was not created");

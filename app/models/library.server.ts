@@ -1,7 +1,7 @@
-import { eq, inArray, type SQL, sql } from "drizzle-orm";
+import { and, desc, eq, inArray, type SQL, sql } from "drizzle-orm";
 import { z } from "zod";
 import type { Db } from "~/db/client.server";
-import { fitment, generations, guides, users } from "~/db/schema";
+import { fitment, generations, guides, revisions, users } from "~/db/schema";
 import { evaluateCallout, storedCallout } from "~/engine/callouts";
 import type { Storage } from "~/services/storage.server";
 import { BoundedCache } from "~/utils/bounded-cache";
@@ -393,6 +393,24 @@ export async function revisionView(db: Db, storage: Pick<Storage, "publicUrl">, 
 const REVISION_VIEWS_KEPT = 200;
 const revisionViews = new BoundedCache<string, Awaited<ReturnType<typeof revisionView>>>(REVISION_VIEWS_KEPT);
 
+/** Each published revision of a guide, newest first: what changed in each, and when it was reviewed and published. */
+async function publishedHistory(db: Db, guideId: number) {
+  return db
+    .select({
+      number: revisions.number,
+      reviewedAt: revisions.reviewedAt,
+      publishedAt: revisions.publishedAt,
+      changeSummary: revisions.changeSummary,
+    })
+    .from(revisions)
+    .where(and(eq(revisions.guideId, guideId), inArray(revisions.state, ["published", "superseded"])))
+    .orderBy(desc(revisions.number))
+    .limit(100);
+}
+
+/** A guide's history changes only when another revision is published, so it is kept by the published revision's id. */
+const histories = new BoundedCache<number, Awaited<ReturnType<typeof publishedHistory>>>(REVISION_VIEWS_KEPT);
+
 /** A published guide as the reader sees it, with every callout evaluated by the engine. */
 export async function getPublishedGuide(db: Db, storage: Pick<Storage, "publicUrl">, slug: string) {
   const [guide] = await db
@@ -415,6 +433,11 @@ export async function getPublishedGuide(db: Db, storage: Pick<Storage, "publicUr
     if (view) revisionViews.set(key, view);
   }
   if (!view) return null;
+  let history = histories.get(guide.publishedRevisionId);
+  if (!history) {
+    history = await publishedHistory(db, guide.id);
+    histories.set(guide.publishedRevisionId, history);
+  }
   return {
     id: guide.id,
     slug: guide.slug,
@@ -426,6 +449,7 @@ export async function getPublishedGuide(db: Db, storage: Pick<Storage, "publicUr
     author: guide.author,
     publishedAt: guide.publishedAt,
     revision: view.revision,
+    history,
     steps: view.steps,
     parts: view.parts,
     tools: view.tools,

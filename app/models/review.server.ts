@@ -142,7 +142,16 @@ export async function startNextRevision(db: Db, guideId: number, actor: Actor) {
   if (!guide.publishedRevisionId) throw new AppError(409, "wrong-state", "This guide has no revision to continue from.");
   const number = await nextRevisionNumber(db, guideId);
   try {
-    await runBatch(db, copyRevisionQueries(db, guide.publishedRevisionId, guideId, number, actor.id));
+    await runBatch(db, [
+      ...copyRevisionQueries(db, guide.publishedRevisionId, guideId, number, actor.id),
+      auditInsert(db, {
+        actorId: actor.id,
+        action: "revision.start",
+        guideId,
+        subjectType: "revision",
+        subjectId: sql`(SELECT id FROM revisions WHERE guide_id = ${guideId} AND number = ${number})`,
+      }),
+    ]);
   } catch (error) {
     // A second tab that started the same copy a moment earlier wins; this one joins its draft.
     const working = (await getGuideById(db, guideId))?.workingRevisionId;
@@ -205,11 +214,11 @@ export async function submitRevision(db: Db, guideId: number, actor: Actor, chan
     auditInsert(db, {
       actorId: actor.id,
       action: "revision.submit",
+      guideId,
       subjectType: "revision",
       subjectId: revisionId,
       reason: summary || null,
       data: { findings: found.length },
-      guideId,
     }),
     ...editors.map((editor) =>
       outboxInsert(
@@ -373,11 +382,11 @@ export async function acknowledgeFinding(
     auditInsert(db, {
       actorId: actor.id,
       action: "finding.acknowledge",
+      guideId: revision.guideId,
       subjectType: "finding",
       subjectId: finding.id,
       reason: input.note,
       data: { rule: finding.rule, severity: finding.severity },
-      guideId: revision.guideId,
     }),
   ]);
   return { ok: true };
@@ -502,11 +511,11 @@ export async function requestChanges(db: Db, revisionId: number, actor: Actor, i
     auditInsert(db, {
       actorId: actor.id,
       action: "revision.request-changes",
+      guideId: guide.id,
       subjectType: "revision",
       subjectId: revisionId,
       reason: input.note,
       data: { comments: comments.length, nextRevision: number },
-      guideId: guide.id,
     }),
     outboxInsert(
       db,

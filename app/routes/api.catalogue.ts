@@ -1,8 +1,12 @@
 import type { Route } from "./+types/api.catalogue";
 import { getDb } from "~/db/client.server";
+import { catalogueIntentSchema } from "~/models/catalogue-input";
 import { publicCatalogue } from "~/models/catalogue.server";
 import { readCatalogue } from "~/models/reader-cache.server";
-import { publicJson } from "~/utils/http.server";
+import { requirePermission } from "~/services/auth/guards.server";
+import { apiHandler, publicJson } from "~/utils/http.server";
+import { applyCatalogueChange } from "./admin.catalogue.server";
+import { methodNotAllowed, PRIVATE_JSON, readAuthoringJson } from "./authoring-api.server";
 
 export async function loader({ request }: Route.LoaderArgs) {
   const makes = await readCatalogue(await getDb());
@@ -10,3 +14,14 @@ export async function loader({ request }: Route.LoaderArgs) {
     makes: publicCatalogue(makes),
   });
 }
+
+/**
+ * The catalogue page's changes for scripts, one JSON intent each (admins only): the same messages,
+ * and the API's error shape for refusals; a used variant's 409 lists the guides in `error.guides`.
+ */
+export const action = apiHandler(async (args: Route.ActionArgs) => {
+  if (args.request.method !== "POST") return methodNotAllowed(["GET", "POST"], "The catalogue");
+  const admin = await requirePermission(args, "manage:catalogue");
+  const input = await readAuthoringJson(args.request, catalogueIntentSchema);
+  return Response.json({ message: await applyCatalogueChange(admin, input) }, { headers: PRIVATE_JSON });
+});

@@ -74,6 +74,7 @@ function readGuide(json: string): ShownGuide {
     ...parsed,
     publishedAt: date(parsed.publishedAt),
     revision: { ...parsed.revision, reviewedAt: date(parsed.revision.reviewedAt) },
+    history: parsed.history?.map((h) => ({ ...h, reviewedAt: date(h.reviewedAt), publishedAt: date(h.publishedAt) })),
   };
   lastRead = { json, guide };
   return guide;

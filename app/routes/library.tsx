@@ -43,20 +43,28 @@ export async function loader({ request }: Route.LoaderArgs) {
   const db = await getDb();
   const stamps = await readContentStamps(db);
   const [result, catalogue] = await Promise.all([readLibrary(db, query, stamps), readCatalogue(db, stamps)]);
+  const selectedVehicle = [query.make, query.model, query.generation].filter(Boolean).join(".");
   const vehicles = catalogue.flatMap((make) =>
     make.models.flatMap((model) => [
       { value: `${make.slug}.${model.slug}`, label: `${make.name} ${model.name} (all years)` },
-      ...model.generations.map((g) => {
-        const value = `${make.slug}.${model.slug}.${g.slug}`;
-        const count = result.facets.vehicle[value] ?? 0;
-        return {
-          value,
-          label: `${make.name} ${model.name} ${g.name} (${yearsLabel(g.firstYear, g.lastYear)}) · ${guidesCount(count)}`,
-        };
-      }),
+      // A generation whose every variant is retired is offered no more, unless the address already names it.
+      ...model.generations
+        .filter(
+          (g) =>
+            g.variants.length === 0 ||
+            g.variants.some((v) => v.retiredAt === null) ||
+            `${make.slug}.${model.slug}.${g.slug}` === selectedVehicle,
+        )
+        .map((g) => {
+          const value = `${make.slug}.${model.slug}.${g.slug}`;
+          const count = result.facets.vehicle[value] ?? 0;
+          return {
+            value,
+            label: `${make.name} ${model.name} ${g.name} (${yearsLabel(g.firstYear, g.lastYear)}) · ${guidesCount(count)}`,
+          };
+        }),
     ]),
   );
-  const selectedVehicle = [query.make, query.model, query.generation].filter(Boolean).join(".");
   // The year as typed, so a year the catalogue does not cover stays in the box to be corrected.
   const yearText = (params.get("year") ?? "").slice(0, 20);
   const { problems: _asked, ...shown } = query;

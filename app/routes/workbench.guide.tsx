@@ -1,5 +1,6 @@
 import { useCallback, useEffect, useMemo, useRef, useState } from "react";
 import { Link, useRevalidator } from "react-router";
+import { GuideHistory } from "~/components/audit-list";
 import { ConflictView } from "~/components/authoring/conflict-view";
 import {
   addStep,
@@ -22,7 +23,8 @@ import { EditorSafetyNotice } from "~/components/editor/safety-notice";
 import { getDb } from "~/db/client.server";
 import { calloutSchema } from "~/engine/callouts";
 import { type Finding, fittingPowertrains, runSafetyRules } from "~/engine/rules";
-import { publicCatalogue } from "~/models/catalogue.server";
+import { listAudit } from "~/models/audit.server";
+import { offeredForFitment, publicCatalogue } from "~/models/catalogue.server";
 import { readDraft } from "~/models/drafts.server";
 import { readCatalogue } from "~/models/reader-cache.server";
 import { commentsForDraft } from "~/models/review.server";
@@ -44,9 +46,10 @@ export async function loader(args: Route.LoaderArgs) {
     const db = await getDb();
     const view = await readDraft(db, user, Number.isSafeInteger(guideId) && guideId > 0 ? guideId : -1);
     const makes = await readCatalogue(db);
-    const catalogue = publicCatalogue(makes);
+    const catalogue = offeredForFitment(publicCatalogue(makes), view.draft.fitment);
     const reviewComments = await commentsForDraft(db, view.guide.id, view.revision.number);
-    return { view, catalogue, mine: view.guide.authorId === user.id, reviewComments };
+    const history = (await listAudit(db, { guideId: view.guide.id }, 50)).entries;
+    return { view, catalogue, mine: view.guide.authorId === user.id, reviewComments, history };
   });
 }
 
@@ -372,7 +375,7 @@ function StepCard({
 }
 
 export default function GuideEditor({ loaderData }: Route.ComponentProps) {
-  const { view, catalogue, mine } = loaderData;
+  const { view, catalogue, mine, history } = loaderData;
   const guideId = view.guide.id;
   const editable = mine && view.revision.state === "draft";
   const revalidator = useRevalidator();
@@ -442,6 +445,9 @@ export default function GuideEditor({ loaderData }: Route.ComponentProps) {
             See it as readers will
           </Link>
         </p>
+        <div className="mt-6">
+          <GuideHistory entries={history} />
+        </div>
       </div>
     );
   }
@@ -734,6 +740,7 @@ export default function GuideEditor({ loaderData }: Route.ComponentProps) {
               revalidator.revalidate();
             }}
           />
+          <GuideHistory entries={history} />
         </aside>
       </div>
     </div>

@@ -11,7 +11,7 @@ export default {
   author: "author@torqueleaf.test",
   state: "published",
   changeSummary:
-    "Second revision: moved the fuse holder to the battery-tray stud (150 mm from the terminal) and added the diesel fitment note.",
+    "First published revision: the fuse holder on the battery-tray stud (150 mm from the terminal) and the diesel fitment note.",
   steps: [
     {
       title: "Plan the layout before you touch a tool",

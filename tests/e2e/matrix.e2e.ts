@@ -46,7 +46,11 @@ const MATRIX: Record<string, Probe[]> = {
   ],
   // The e2e server runs with LOCAL_FAKES=1; without it the route answers 404 to everyone.
   "/dev/inbox": [{ path: "/dev/inbox", expect: all(200) }],
-  "/api/catalogue": [{ path: "/api/catalogue", expect: all(200) }],
+  "/api/catalogue": [
+    { path: "/api/catalogue", expect: all(200) },
+    // Changes are the admins'; an empty body is refused by field.
+    { method: "POST", path: "/api/catalogue", json: {}, expect: only(["admin"], 400, 403, 401) },
+  ],
   "/api/guides": [
     { path: "/api/guides", expect: all(200) },
     // A new guide is an author's (editors and admins write too); an empty body is refused by field.
@@ -149,6 +153,15 @@ const MATRIX: Record<string, Probe[]> = {
   "/admin/users": [
     { path: "/admin/users", expect: only(["admin"], 200, 403, 302) },
     { method: "POST", path: "/admin/users", form: { intent: "none" }, expect: only(["admin"], 400, 403, 302) },
+  ],
+  // The audit log only reads; a filter that does not parse is 400 with the page.
+  "/admin/audit": [
+    { path: "/admin/audit", expect: only(["admin"], 200, 403, 302) },
+    { path: "/admin/audit?page=0", expect: only(["admin"], 400, 403, 302) },
+  ],
+  "/admin/catalogue": [
+    { path: "/admin/catalogue", expect: only(["admin"], 200, 403, 302) },
+    { method: "POST", path: "/admin/catalogue", form: { intent: "none" }, expect: only(["admin"], 400, 403, 302) },
   ],
   // A reader gets the Workbench page that leads to the contributor terms; writing needs an author.
   "/workbench": [

@@ -33,6 +33,8 @@ const READER_PAGES = [
 const SIGNED_IN_PAGES: { path: string; account: keyof typeof ACCOUNTS }[] = [
   { path: "/me/account", account: "reader" },
   { path: "/admin/users", account: "admin" },
+  { path: "/admin/audit", account: "admin" },
+  { path: "/admin/catalogue", account: "admin" },
 ];
 
 async function settle(page: Page, path: string) {

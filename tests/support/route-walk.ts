@@ -70,6 +70,8 @@ export const ROUTE_PATHS: Record<string, (photo: string) => string[]> = {
   "/mail/opt-out/:token": () => [`/mail/opt-out/${fixtures.badToken}`],
   "/contributor-terms": () => ["/contributor-terms"],
   "/admin/users": () => ["/admin/users"],
+  "/admin/audit": () => ["/admin/audit", "/admin/audit?actor=someone&from=2024-02-30&page=0"],
+  "/admin/catalogue": () => ["/admin/catalogue"],
   "/workbench": () => ["/workbench"],
   "/workbench/guides/new": () => ["/workbench/guides/new"],
   "/workbench/guides/:id": () => ["/workbench/guides/1", "/workbench/guides/not-a-number"],
