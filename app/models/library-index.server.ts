@@ -28,12 +28,18 @@ import {
 
 type Guide = LibraryRow & { publishedAt: number };
 
+/** Difficulty runs 1–5 (guide-input.ts). */
+const DIFFICULTY_MAX = 5;
+
 type Generation = { id: number; key: string; make: string; model: string; slug: string; firstYear: number; lastYear: number };
 
 type Index = {
   /** Newest first (published_at, then id, descending): the Library's order without a search. */
   guides: Guide[];
   byRevision: Map<number, number>;
+  /** Per guide: its category's place in CATEGORIES, and its difficulty (1–5), for the passes below. */
+  guideCategory: Int8Array;
+  guideDifficulty: Int8Array;
   /**
    * The fitting variants (status other than does-not-fit) as rows grouped by guide: guide `g`'s
    * rows are `rowStart[g]` up to `rowStart[g + 1]`.
@@ -136,6 +142,8 @@ async function buildIndex(db: Db): Promise<Index> {
   return {
     guides,
     byRevision,
+    guideCategory: Int8Array.from(guides, (g) => (CATEGORIES as readonly string[]).indexOf(g.category)),
+    guideDifficulty: Int8Array.from(guides, (g) => g.difficulty),
     rowStart,
     rowGeneration,
     rowPowertrain,
@@ -254,7 +262,8 @@ async function searchHits(db: Db, index: Index, match: string): Promise<SearchHi
 export async function listFromIndex(db: Db, asked: LibraryQuery, stamps?: ContentStamps) {
   const index = await indexFor(db, stamps ?? (await readContentStamps(db)));
   const { query, problems } = usableQuery(asked, index.years);
-  const { guides } = index;
+  const { guides, guideCategory, guideDifficulty } = index;
+  const wantCategory = query.category ? CATEGORIES.indexOf(query.category) : -1;
   const count = guides.length;
 
   // With a search, only the index's matches count, each with its rank.
@@ -276,8 +285,8 @@ export async function listFromIndex(db: Db, asked: LibraryQuery, stamps?: Conten
   generationLast.fill(-1);
   for (let k = 0; k < candidateCount; k++) {
     const g = candidates ? candidates[k] : k;
-    const category = !query.category || guides[g].category === query.category;
-    const difficulty = !query.difficulty || guides[g].difficulty === query.difficulty;
+    const category = wantCategory < 0 || guideCategory[g] === wantCategory;
+    const difficulty = !query.difficulty || guideDifficulty[g] === query.difficulty;
     ok[g] = category && difficulty ? 1 : 0;
     okButCategory[g] = difficulty ? 1 : 0;
     okButDifficulty[g] = category ? 1 : 0;
@@ -311,8 +320,8 @@ export async function listFromIndex(db: Db, asked: LibraryQuery, stamps?: Conten
   }
 
   const matching: number[] = [];
-  const categoryCounts = new Map<string, number>();
-  const difficultyCounts = new Map<string, number>();
+  const categoryCounts = new Int32Array(CATEGORIES.length);
+  const difficultyCounts = new Int32Array(DIFFICULTY_MAX + 1);
   const powertrainCounts = new Int32Array(POWERTRAINS.length);
   const drivetrainCounts = new Int32Array(DRIVETRAINS.length);
   for (let k = 0; k < candidateCount; k++) {
@@ -323,11 +332,8 @@ export async function listFromIndex(db: Db, asked: LibraryQuery, stamps?: Conten
     }
     if (vehicleFiltered && vehicleAll[g] !== 1) continue;
     if (ok[g] === 1) matching.push(g);
-    if (okButCategory[g] === 1) categoryCounts.set(guides[g].category, (categoryCounts.get(guides[g].category) ?? 0) + 1);
-    if (okButDifficulty[g] === 1) {
-      const key = String(guides[g].difficulty);
-      difficultyCounts.set(key, (difficultyCounts.get(key) ?? 0) + 1);
-    }
+    if (okButCategory[g] === 1) categoryCounts[guideCategory[g]]++;
+    if (okButDifficulty[g] === 1) difficultyCounts[guideDifficulty[g]]++;
   }
   const variantFacet = (values: readonly string[], counts: Int32Array) =>
     sortedCounts(new Map(values.map((value, v) => [value, counts[v]])));
@@ -355,8 +361,8 @@ export async function listFromIndex(db: Db, asked: LibraryQuery, stamps?: Conten
       facets: {
         powertrain: variantFacet(POWERTRAINS, powertrainCounts),
         drivetrain: variantFacet(DRIVETRAINS, drivetrainCounts),
-        category: sortedCounts(new Map(CATEGORIES.map((c) => [c, categoryCounts.get(c) ?? 0]))),
-        difficulty: sortedCounts(difficultyCounts),
+        category: sortedCounts(new Map(CATEGORIES.map((c, i) => [c, categoryCounts[i]]))),
+        difficulty: sortedCounts(new Map([...difficultyCounts].map((n, d) => [String(d), n]))),
         vehicle: sortedCounts(vehicleCounts),
       },
       problems,
