@@ -103,22 +103,25 @@ function controlClass(error: string | undefined) {
 }
 
 /** Label above, hint and error below, tied to the control by `aria-describedby`. */
-function FieldFrame({
+export function FieldFrame({
   id,
   label,
   error,
   hint,
+  className = "mt-4 first:mt-0",
   children,
 }: {
   id: string;
   label: string;
   error?: string;
   hint?: string;
+  /** The wrapper's classes (spacing in a form of fields one under another by default). */
+  className?: string;
   children: (describedBy: string | undefined) => ReactNode;
 }) {
   const described = [error ? `${id}-error` : null, hint ? `${id}-hint` : null].filter(Boolean).join(" ") || undefined;
   return (
-    <div className="mt-4 first:mt-0">
+    <div className={className}>
       <label htmlFor={id} className="block text-sm font-semibold text-ink">
         {label}
       </label>

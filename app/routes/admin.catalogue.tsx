@@ -1,6 +1,6 @@
 import type { ReactNode } from "react";
 import { Form } from "react-router";
-import { Notice, SubmitButton } from "~/components/form";
+import { FieldFrame, Notice, SubmitButton } from "~/components/form";
 import { FIRST_MODEL_YEAR, lastModelYear, MAX_BATTERY_RUN_M } from "~/models/catalogue-input";
 import { type FormFailure, failureOf } from "~/utils/forms";
 import { round } from "~/utils/format";
@@ -67,34 +67,22 @@ function TextInput({
   const id = `${form}-${name}`;
   const error = failure?.fields?.[name];
   const shown = failure ? (failure.values?.[name] ?? "") : value === null || value === undefined ? "" : String(value);
-  const described = [error ? `${id}-error` : null, hint ? `${id}-hint` : null].filter(Boolean).join(" ") || undefined;
   return (
-    <div className="min-w-0">
-      <label htmlFor={id} className="block text-sm font-semibold">
-        {label}
-      </label>
-      <input
-        id={id}
-        name={name}
-        type={type}
-        defaultValue={shown}
-        required={required}
-        aria-invalid={error ? true : undefined}
-        aria-describedby={described}
-        className={inputClass(error)}
-        {...rest}
-      />
-      {hint ? (
-        <p id={`${id}-hint`} className="mt-1 text-xs text-ink-soft">
-          {hint}
-        </p>
-      ) : null}
-      {error ? (
-        <p id={`${id}-error`} className="mt-1 text-sm font-medium text-z-danger">
-          {error}
-        </p>
-      ) : null}
-    </div>
+    <FieldFrame id={id} label={label} error={error} hint={hint} className="min-w-0">
+      {(described) => (
+        <input
+          id={id}
+          name={name}
+          type={type}
+          defaultValue={shown}
+          required={required}
+          aria-invalid={error ? true : undefined}
+          aria-describedby={described}
+          className={inputClass(error)}
+          {...rest}
+        />
+      )}
+    </FieldFrame>
   );
 }
 
@@ -116,31 +104,25 @@ function SelectInput({
   const id = `${form}-${name}`;
   const error = failure?.fields?.[name];
   return (
-    <div className="min-w-0">
-      <label htmlFor={id} className="block text-sm font-semibold">
-        {label}
-      </label>
-      <select
-        id={id}
-        name={name}
-        defaultValue={failure ? (failure.values?.[name] ?? "") : (value ?? "")}
-        aria-invalid={error ? true : undefined}
-        aria-describedby={error ? `${id}-error` : undefined}
-        className={inputClass(error)}
-      >
-        {value === undefined && !failure ? <option value="">Choose…</option> : null}
-        {options.map((o) => (
-          <option key={o.value} value={o.value}>
-            {o.label}
-          </option>
-        ))}
-      </select>
-      {error ? (
-        <p id={`${id}-error`} className="mt-1 text-sm font-medium text-z-danger">
-          {error}
-        </p>
-      ) : null}
-    </div>
+    <FieldFrame id={id} label={label} error={error} className="min-w-0">
+      {(described) => (
+        <select
+          id={id}
+          name={name}
+          defaultValue={failure ? (failure.values?.[name] ?? "") : (value ?? "")}
+          aria-invalid={error ? true : undefined}
+          aria-describedby={described}
+          className={inputClass(error)}
+        >
+          {value === undefined && !failure ? <option value="">Choose…</option> : null}
+          {options.map((o) => (
+            <option key={o.value} value={o.value}>
+              {o.label}
+            </option>
+          ))}
+        </select>
+      )}
+    </FieldFrame>
   );
 }
 
