@@ -2,7 +2,7 @@ import { count, desc, eq } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { startAppServer } from "../support/app-server";
 import { useTestDatabase } from "../support/base-db";
-import { TestClient } from "../support/http-client";
+import { TestClient, plainText } from "../support/http-client";
 
 // The audit log over HTTP, on a database of its own so that counts and pages are this file's:
 // the demo data's own history (written by the seed through the model functions), a role change
@@ -20,17 +20,6 @@ async function signedIn(email: string) {
   expect((await client.signIn(email, "torqueleaf-demo")).status).toBe(302);
   return client;
 }
-
-/** The page's words: no markup, styles or scripts. */
-const plainText = (html: string) =>
-  html
-    .replace(/<(style|script)\b[^>]*>[\s\S]*?<\/\1>/g, " ")
-    .replace(/<!--.*?-->/g, "")
-    .replace(/<[^>]+>/g, " ")
-    .replace(/&#x27;|&#39;/g, "'")
-    .replace(/&quot;/g, '"')
-    .replace(/&amp;/g, "&")
-    .replace(/\s+/g, " ");
 
 async function db() {
   const { getDb } = await import("~/db/client.server");

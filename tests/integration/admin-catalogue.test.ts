@@ -2,7 +2,7 @@ import { and, eq, like } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { startAppServer } from "../support/app-server";
 import { useTestDatabase } from "../support/base-db";
-import { expectFlash, TestClient } from "../support/http-client";
+import { expectFlash, TestClient, plainText } from "../support/http-client";
 
 // The vehicle catalogue's administration over HTTP on a database of its own (the changes would
 // otherwise show in other files' Library counts), checked through the public catalogue, the
@@ -20,17 +20,6 @@ async function signedIn(email: string) {
   expect((await client.signIn(email, "torqueleaf-demo")).status).toBe(302);
   return client;
 }
-
-/** The page's words: no markup, styles or scripts. */
-const plainText = (html: string) =>
-  html
-    .replace(/<(style|script)\b[^>]*>[\s\S]*?<\/\1>/g, " ")
-    .replace(/<!--.*?-->/g, "")
-    .replace(/<[^>]+>/g, " ")
-    .replace(/&#x27;|&#39;/g, "'")
-    .replace(/&quot;/g, '"')
-    .replace(/&amp;/g, "&")
-    .replace(/\s+/g, " ");
 
 type ApiVariant = { id: number; key: string; name: string; powertrain: string; batteryRunM: number; retired: boolean };
 type ApiCatalogue = {

@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { formatDate } from "~/utils/format";
 import { startAppServer } from "../support/app-server";
 import { useTestDatabase } from "../support/base-db";
-import { TestClient } from "../support/http-client";
+import { TestClient, plainText } from "../support/http-client";
 import { demoUser, guideBySlug } from "./revision-fixtures";
 
 // Readers see the review: the guide page's review line and the history of its published revisions,
@@ -17,17 +17,6 @@ beforeAll(async () => {
   app = await startAppServer();
 });
 afterAll(async () => app?.stop());
-
-/** The page's words: no markup, styles or scripts. */
-const plainText = (html: string) =>
-  html
-    .replace(/<(style|script)\b[^>]*>[\s\S]*?<\/\1>/g, " ")
-    .replace(/<!--.*?-->/g, "")
-    .replace(/<[^>]+>/g, " ")
-    .replace(/&#x27;|&#39;/g, "'")
-    .replace(/&quot;/g, '"')
-    .replace(/&amp;/g, "&")
-    .replace(/\s+/g, " ");
 
 type ApiGuide = {
   revision: { number: number; reviewedAt: string };

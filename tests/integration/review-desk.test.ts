@@ -1,3 +1,4 @@
+import { plainText as text } from "../support/http-client";
 import { and, eq } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Db } from "~/db/client.server";
@@ -59,14 +60,6 @@ async function signAll(revisionId: number) {
 
 const decide = (client: TestClient, revisionId: number, body: unknown) =>
   sendJson<ApiError & { ok?: boolean; state?: string }>(client, "POST", `/api/review/${revisionId}`, body);
-
-const text = (html: string) =>
-  html
-    .replace(/<!--.*?-->/g, "")
-    .replace(/<[^>]+>/g, " ")
-    .replace(/&quot;/g, '"')
-    .replace(/&#x27;|&#39;/g, "'")
-    .replace(/\s+/g, " ");
 
 const mailsFor = (userId: number, kind: string) =>
   db.query.outbox.findMany({ where: and(eq(outbox.userId, userId), eq(outbox.kind, kind as "account")) });

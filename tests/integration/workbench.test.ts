@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { latestMail, linkPath, uniqueEmail } from "../support/http-client";
+import { latestMail, linkPath, uniqueEmail, plainText } from "../support/http-client";
 import { sharedApp } from "../support/shared-app";
 import { currentRevision, demoUser, draftFrom } from "./revision-fixtures";
 
@@ -17,12 +17,6 @@ async function newAuthor() {
   expect((await client.signIn(email, password)).status).toBe(302);
   return { client, email };
 }
-
-const plainText = (html: string) =>
-  html
-    .replace(/<!--.*?-->/g, "")
-    .replace(/<[^>]+>/g, " ")
-    .replace(/\s+/g, " ");
 
 describe("the Workbench", () => {
   it("leads a reader to the contributor terms, then lists what the new author writes", async () => {

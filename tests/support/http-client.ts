@@ -121,3 +121,14 @@ export async function expectFlash(client: TestClient, response: Response, to: st
   const again = await (await client.get(location)).text();
   if (again.includes(text)) throw new Error(`the message "${text}" showed a second time`);
 }
+
+/** A page's words: no markup, styles or scripts; the entities React writes decoded. */
+export const plainText = (html: string) =>
+  html
+    .replace(/<(style|script)\b[^>]*>[\s\S]*?<\/\1>/g, " ")
+    .replace(/<!--.*?-->/g, "")
+    .replace(/<[^>]+>/g, " ")
+    .replace(/&#x27;|&#39;/g, "'")
+    .replace(/&quot;/g, '"')
+    .replace(/&amp;/g, "&")
+    .replace(/\s+/g, " ");
