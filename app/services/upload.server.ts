@@ -35,12 +35,16 @@ export function readPhotoUpload(request: Request): Promise<Upload> {
       reject(new AppError(400, "invalid", `The multipart body could not be read. Send the photo in the field "${FIELD}".`));
       return;
     }
-    /** Ends the exchange: stop reading the body (the rest is never pulled from the socket). */
+    /**
+     * Ends the exchange: stop parsing; the rest of the body is read and dropped, not cancelled (the
+     * development server's request adapter writes into the stream until the client is done, and
+     * fails on a cancelled one). The answer goes out at once either way.
+     */
     const finish = (outcome: Upload | AppError) => {
       if (settled) return;
       settled = true;
       source.unpipe(parser);
-      source.destroy();
+      source.resume();
       if (outcome instanceof AppError) reject(outcome);
       else resolve(outcome);
     };

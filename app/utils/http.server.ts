@@ -101,7 +101,10 @@ export async function readBodyText(request: Request, maxBytes: number): Promise<
     if (done) break;
     total += value.byteLength;
     if (total > maxBytes) {
-      await reader.cancel();
+      // The rest is read and dropped rather than the stream cancelled: the development server's
+      // request adapter would still write the rest into a cancelled stream and fail. The body-limit
+      // middleware has bounded what can follow.
+      while (!(await reader.read()).done) {}
       throw tooLarge(limit);
     }
     chunks.push(value);
