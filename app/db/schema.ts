@@ -33,6 +33,11 @@ const updatedAt = () =>
     .notNull()
     .default(sql`(unixepoch('subsec') * 1000)`)
     .$onUpdateFn(() => new Date());
+/** Set by the app on insert and update: a column added to an existing table cannot default to an expression. */
+const touchedAt = () =>
+  integer({ mode: "timestamp_ms" })
+    .$defaultFn(() => new Date())
+    .$onUpdateFn(() => new Date());
 
 // ── People and access ──────────────────────────────────────────────
 
@@ -509,6 +514,8 @@ export const savedVehicles = sqliteTable(
       .references(() => variants.id),
     year: integer(),
     nickname: text(),
+    /** The one vehicle the Library and guide pages judge fitment against; at most one per reader. */
+    current: integer({ mode: "boolean" }).notNull().default(false),
     createdAt: createdAt(),
   },
   (t) => [index("saved_vehicles_user").on(t.userId)],
@@ -529,6 +536,7 @@ export const checklists = sqliteTable(
       .references(() => revisions.id),
     title: text().notNull(),
     createdAt: createdAt(),
+    updatedAt: touchedAt(),
   },
   (t) => [index("checklists_user").on(t.userId)],
 );
@@ -545,6 +553,16 @@ export const checklistItems = sqliteTable(
     partNumber: text(),
     quantity: integer().notNull().default(1),
     checked: integer({ mode: "boolean" }).notNull().default(false),
+    note: text(),
+    /** "part" or "tool" when copied from the guide; null for the reader's own item. */
+    source: text({ enum: ["part", "tool"] }),
+    /** The step that uses the part (from the guide's parts list), if any. */
+    stepIndex: integer(),
+    /** Identity of the guide's part or tool the item was copied from, to merge a newer revision. */
+    sourceKey: text(),
+    /** Set when a newer revision of the guide no longer lists the part; the item is kept, marked. */
+    removedAt: integer({ mode: "timestamp_ms" }),
+    updatedAt: touchedAt(),
   },
   (t) => [index("checklist_items_checklist").on(t.checklistId)],
 );
@@ -562,11 +580,40 @@ export const fitmentReports = sqliteTable(
     userId: integer()
       .notNull()
       .references(() => users.id, { onDelete: "cascade" }),
+    /** The saved vehicle reported on, if the reader chose one (the variant is kept either way). */
+    vehicleId: integer().references(() => savedVehicles.id, { onDelete: "set null" }),
+    year: integer(),
     status: text({ enum: FITMENT_STATUSES }).notNull(),
     note: text(),
     createdAt: createdAt(),
+    updatedAt: touchedAt(),
+    /** An editor hid the report (abusive or off-topic); the reason is in the audit log too. */
+    hiddenAt: integer({ mode: "timestamp_ms" }),
+    hiddenBy: integer().references(() => users.id),
+    hiddenReason: text(),
   },
-  (t) => [index("fitment_reports_guide").on(t.guideId)],
+  (t) => [
+    index("fitment_reports_guide").on(t.guideId),
+    // One report per reader, vehicle (variant) and guide: a second replaces the first.
+    uniqueIndex("fitment_reports_reader_variant").on(t.guideId, t.userId, t.variantId),
+  ],
+);
+
+/** Work-through mode: the steps a signed-in reader has ticked done, per published revision. */
+export const stepTicks = sqliteTable(
+  "step_ticks",
+  {
+    id: id(),
+    userId: integer()
+      .notNull()
+      .references(() => users.id, { onDelete: "cascade" }),
+    revisionId: integer()
+      .notNull()
+      .references(() => revisions.id, { onDelete: "cascade" }),
+    position: integer().notNull(),
+    createdAt: createdAt(),
+  },
+  (t) => [uniqueIndex("step_ticks_reader_step").on(t.userId, t.revisionId, t.position)],
 );
 
 export const comments = sqliteTable(
