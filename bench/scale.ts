@@ -115,7 +115,10 @@ async function measureInProcess(file: string, runs: number, budgetMs: number, ca
   const measured: Measured[] = [];
   for (const c of cases) {
     process.stderr.write(`  ${c.label}…\n`);
-    measured.push({ ...c, ...(await measureCase({ file, query: c.query, runs, budgetMs, warmup: cases.map((other) => other.query) }, caseLimitMs)) });
+    measured.push({
+      ...c,
+      ...(await measureCase({ file, query: c.query, runs, budgetMs, warmup: cases.map((other) => other.query) }, caseLimitMs)),
+    });
   }
 
   const rows = measured.map((m) => {
