@@ -12,6 +12,8 @@ import {
   type LibraryRow,
   libraryAnswer,
   PAGE_SIZE,
+  readReportsStamp,
+  relaxFilters,
   SEARCH_WEIGHTS,
   usableQuery,
 } from "./library.server";
@@ -49,6 +51,12 @@ type Index = {
   rowGeneration: Int32Array;
   rowPowertrain: Int8Array;
   rowDrivetrain: Int8Array;
+  /** The variant's id of each row, for the "fits this variant" filter. */
+  rowVariant: Int32Array;
+  /** Guides by time, shortest first, ties newest first: the "shortest" order. */
+  byMinutes: Int32Array;
+  /** Guides by readers' "fits" reports, most first, ties newest first, for a reports stamp. */
+  byReports: { stamp: string; order: Int32Array } | null;
   generations: Generation[];
   years: { first: number; last: number } | null;
   /** Working arrays of one query, reused (a query fills and reads them without awaiting). */
@@ -87,6 +95,7 @@ function scratchFor(guides: number, generations: number) {
     drivetrainBits: new Uint8Array(guides),
     generationCounts: new Int32Array(generations),
     generationLast: new Int32Array(generations),
+    listed: new Uint8Array(guides),
   };
 }
 
@@ -117,8 +126,14 @@ async function buildIndex(db: Db): Promise<Index> {
     lastYear: g.lastYear ?? 9999,
   }));
   const generationAt = new Map(generations.map((g, i) => [g.id, i]));
-  const fitting = await db.all<{ revisionId: number; generationId: number; powertrain: string; drivetrain: string }>(sql`
-    SELECT f.revision_id AS revisionId, v.generation_id AS generationId, v.powertrain, v.drivetrain
+  const fitting = await db.all<{
+    revisionId: number;
+    variantId: number;
+    generationId: number;
+    powertrain: string;
+    drivetrain: string;
+  }>(sql`
+    SELECT f.revision_id AS revisionId, f.variant_id AS variantId, v.generation_id AS generationId, v.powertrain, v.drivetrain
     FROM guides g JOIN fitment f ON f.revision_id = g.published_revision_id AND f.status <> 'does-not-fit'
     JOIN variants v ON v.id = f.variant_id WHERE g.state = 'published'`);
   // Rows grouped by guide, so a guide's rows come one after another when counting guides per value.
@@ -130,6 +145,7 @@ async function buildIndex(db: Db): Promise<Index> {
   const rowGeneration = new Int32Array(order.length);
   const rowPowertrain = new Int8Array(order.length);
   const rowDrivetrain = new Int8Array(order.length);
+  const rowVariant = new Int32Array(order.length);
   const rowStart = new Int32Array(guides.length + 1);
   for (const from of order) rowStart[guideOfRow[from] + 1]++;
   for (let g = 0; g < guides.length; g++) rowStart[g + 1] += rowStart[g];
@@ -138,7 +154,9 @@ async function buildIndex(db: Db): Promise<Index> {
     rowGeneration[i] = generationAt.get(row.generationId) ?? -1;
     rowPowertrain[i] = (POWERTRAINS as readonly string[]).indexOf(row.powertrain);
     rowDrivetrain[i] = (DRIVETRAINS as readonly string[]).indexOf(row.drivetrain);
+    rowVariant[i] = row.variantId;
   });
+  const byMinutes = Int32Array.from(guides, (_, g) => g).sort((a, b) => guides[a].minutes - guides[b].minutes || a - b);
   return {
     guides,
     byRevision,
@@ -148,6 +166,9 @@ async function buildIndex(db: Db): Promise<Index> {
     rowGeneration,
     rowPowertrain,
     rowDrivetrain,
+    rowVariant,
+    byMinutes,
+    byReports: null,
     generations,
     years: catalogueYearsOf(generationRows),
     scratch: scratchFor(guides.length, generations.length),
@@ -206,7 +227,40 @@ function generationFilters(index: Index, query: LibraryQuery) {
 }
 
 const hasVehicleFilter = (query: LibraryQuery) =>
-  !!(query.make || query.model || query.generation || query.year || query.powertrain || query.drivetrain);
+  !!(query.make || query.model || query.generation || query.year || query.powertrain || query.drivetrain || query.fits);
+
+/** The guides in "most reported fits" order, made again only when the reports have changed. */
+async function reportsOrder(db: Db, index: Index): Promise<Int32Array> {
+  const stamp = await readReportsStamp(db);
+  if (index.byReports?.stamp === stamp) return index.byReports.order;
+  const rows = await db.all<{ guideId: number; n: number }>(sql`
+    SELECT guide_id AS guideId, count(*) AS n FROM fitment_reports
+    WHERE status = 'fits' AND hidden_at IS NULL GROUP BY guide_id`);
+  const byId = new Map(index.guides.map((g, i) => [g.id, i]));
+  const fits = new Int32Array(index.guides.length);
+  for (const row of rows) {
+    const g = byId.get(Number(row.guideId));
+    if (g !== undefined) fits[g] = Number(row.n);
+  }
+  const order = Int32Array.from(index.guides, (_, g) => g).sort((a, b) => fits[b] - fits[a] || a - b);
+  index.byReports = { stamp, order };
+  return order;
+}
+
+/** The guides of `matching` at `offset`, a page of them, in the order `order` gives (every guide once). */
+function pageInOrder(index: Index, matching: number[], order: Int32Array, offset: number): number[] {
+  const { listed } = index.scratch;
+  for (const g of matching) listed[g] = 1;
+  const shown: number[] = [];
+  let seen = 0;
+  for (let k = 0; k < order.length && shown.length < PAGE_SIZE; k++) {
+    const g = order[k];
+    if (listed[g] !== 1) continue;
+    if (seen++ >= offset) shown.push(g);
+  }
+  for (const g of matching) listed[g] = 0;
+  return shown;
+}
 
 /**
  * The first `k` of `items` in the order `before` gives, without sorting the rest: a page of a
@@ -261,6 +315,17 @@ async function searchHits(db: Db, index: Index, match: string): Promise<SearchHi
 /** `listPublishedGuides`, answered from the index (`stamps`: read by the caller for this request). */
 export async function listFromIndex(db: Db, asked: LibraryQuery, stamps?: ContentStamps) {
   const index = await indexFor(db, stamps ?? (await readContentStamps(db)));
+  return answerFromIndex(db, index, asked, false);
+}
+
+async function answerFromIndex(db: Db, index: Index, asked: LibraryQuery, totalOnly: true): Promise<number>;
+async function answerFromIndex(
+  db: Db,
+  index: Index,
+  asked: LibraryQuery,
+  totalOnly: false,
+): Promise<Awaited<ReturnType<typeof libraryAnswer>>>;
+async function answerFromIndex(db: Db, index: Index, asked: LibraryQuery, totalOnly: boolean) {
   const { query, problems } = usableQuery(asked, index.years);
   const { guides, guideCategory, guideDifficulty } = index;
   const wantCategory = query.category ? CATEGORIES.indexOf(query.category) : -1;
@@ -300,6 +365,8 @@ export async function listFromIndex(db: Db, asked: LibraryQuery, stamps?: Conten
   const generation = generationFilters(index, query);
   const wantPowertrain = query.powertrain ? POWERTRAINS.indexOf(query.powertrain) : -1;
   const wantDrivetrain = query.drivetrain ? DRIVETRAINS.indexOf(query.drivetrain) : -1;
+  const wantVariant = query.fits ?? -1;
+  const { rowVariant } = index;
   for (let k = 0; k < candidateCount; k++) {
     const g = candidates ? candidates[k] : k;
     for (let r = rowStart[g]; r < rowStart[g + 1]; r++) {
@@ -307,12 +374,13 @@ export async function listFromIndex(db: Db, asked: LibraryQuery, stamps?: Conten
       if (gen < 0) continue;
       const powertrain = wantPowertrain < 0 || rowPowertrain[r] === wantPowertrain;
       const drivetrain = wantDrivetrain < 0 || rowDrivetrain[r] === wantDrivetrain;
-      const named = generation.all[gen] === 1;
+      const variant = wantVariant < 0 || rowVariant[r] === wantVariant;
+      const named = generation.all[gen] === 1 && variant;
       if (named && powertrain && drivetrain) vehicleAll[g] = 1;
       if (named && drivetrain) powertrainBits[g] |= 1 << rowPowertrain[r];
       if (named && powertrain) drivetrainBits[g] |= 1 << rowDrivetrain[r];
       // Rows come grouped by guide: a guide is counted once per generation.
-      if (ok[g] === 1 && generation.year[gen] === 1 && powertrain && drivetrain && generationLast[gen] !== g) {
+      if (ok[g] === 1 && generation.year[gen] === 1 && variant && powertrain && drivetrain && generationLast[gen] !== g) {
         generationLast[gen] = g;
         generationCounts[gen]++;
       }
@@ -342,13 +410,20 @@ export async function listFromIndex(db: Db, asked: LibraryQuery, stamps?: Conten
     if (n > 0) vehicleCounts.set(index.generations[gen].key, n);
   });
 
-  // Newest first (the guides' own order), or by rank with a search, ties newest first.
   const total = matching.length;
+  if (totalOnly) return total;
+  // The sort asked for, else by rank with a search, else newest first (the guides' own order);
+  // ties newest first.
   const offset = (query.page - 1) * PAGE_SIZE;
-  const r = rank;
-  const shown = r
-    ? firstInOrder(matching, offset + PAGE_SIZE, (a, b) => r[a] < r[b] || (r[a] === r[b] && a < b)).slice(offset)
-    : matching.slice(offset, offset + PAGE_SIZE);
+  const r = query.sort ? null : rank;
+  const shown =
+    query.sort === "shortest"
+      ? pageInOrder(index, matching, index.byMinutes, offset)
+      : query.sort === "fits"
+        ? pageInOrder(index, matching, await reportsOrder(db, index), offset)
+        : r
+          ? firstInOrder(matching, offset + PAGE_SIZE, (a, b) => r[a] < r[b] || (r[a] === r[b] && a < b)).slice(offset)
+          : matching.slice(offset, offset + PAGE_SIZE);
   return libraryAnswer(
     db,
     query,
@@ -366,6 +441,7 @@ export async function listFromIndex(db: Db, asked: LibraryQuery, stamps?: Conten
         vehicle: sortedCounts(vehicleCounts),
       },
       problems,
+      relax: await relaxFilters(query, total, (without) => answerFromIndex(db, index, without, true)),
     },
     (revisionIds) => keptFitment(db, index, revisionIds),
   );

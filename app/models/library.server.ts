@@ -21,6 +21,16 @@ const slugParam = z
   .optional()
   .catch(undefined);
 
+/** A variant's id in the catalogue, as the address names it. */
+const variantParam = z.coerce.number().int().min(1).max(2_147_483_647).optional().catch(undefined);
+
+/**
+ * The Library's orders besides a search's rank: newest first, most reports that a guide fitted
+ * (readers' fitment reports, hidden ones left out), shortest time first; ties newest first.
+ */
+export const LIBRARY_SORTS = ["newest", "fits", "shortest"] as const;
+export type LibrarySort = (typeof LIBRARY_SORTS)[number];
+
 /** The Library's query string; anything unreadable is dropped rather than failing the page. */
 export const libraryQuerySchema = z.object({
   make: slugParam,
@@ -33,6 +43,11 @@ export const libraryQuerySchema = z.object({
   category: z.enum(CATEGORIES).optional().catch(undefined),
   difficulty: z.coerce.number().int().min(1).max(5).optional().catch(undefined),
   q: z.string().trim().max(SEARCH_MAX).optional().catch(undefined),
+  /** Only guides that fit this variant (fits or fits with changes); each card says how it fits. */
+  fits: variantParam,
+  /** Each card says how the guide fits this variant, without filtering by it. */
+  for: variantParam,
+  sort: z.enum(LIBRARY_SORTS).optional().catch(undefined),
   page: z.coerce.number().int().min(1).max(1000).default(1).catch(1),
 });
 export type LibraryQuery = z.infer<typeof libraryQuerySchema> & {
@@ -83,6 +98,8 @@ function vehicleConditions(query: LibraryQuery, without?: Dimension): SQL[] {
   if (query.year) vehicle.push(sql`gen.first_year <= ${query.year} AND coalesce(gen.last_year, 9999) >= ${query.year}`);
   if (query.powertrain && without !== "powertrain") vehicle.push(sql`v.powertrain = ${query.powertrain}`);
   if (query.drivetrain && without !== "drivetrain") vehicle.push(sql`v.drivetrain = ${query.drivetrain}`);
+  // Like the year, the variant is no facet's own filter: every count keeps it.
+  if (query.fits) vehicle.push(sql`f.variant_id = ${query.fits}`);
   return vehicle;
 }
 
@@ -258,22 +275,41 @@ export function usableQuery(asked: LibraryQuery, years: { first: number; last: n
 export async function libraryAnswer(
   db: Db,
   query: LibraryQuery,
-  page: { rows: LibraryRow[]; total: number; facets: Facets; problems: LibraryProblems },
+  page: {
+    rows: LibraryRow[];
+    total: number;
+    facets: Facets;
+    problems: LibraryProblems;
+    relax: Awaited<ReturnType<typeof relaxFilters>>;
+  },
   /** The fitment of the page's revisions, when the caller has it already. */
   fitmentOf?: (revisionIds: number[]) => Promise<LibraryFitment[]>,
 ) {
-  const { rows, total, facets, problems } = page;
+  const { rows, total, facets, problems, relax } = page;
   const revisionIds = rows.map((r) => r.revisionId);
-  const fitmentRows = await (fitmentOf ? fitmentOf(revisionIds) : fitmentFor(db, revisionIds));
+  const match = query.q ? ftsQuery(query.q) : null;
+  const [fitmentRows, highlights] = await Promise.all([
+    fitmentOf ? fitmentOf(revisionIds) : fitmentFor(db, revisionIds),
+    match ? searchHighlights(db, match, revisionIds) : null,
+  ]);
+  const variant = query.fits ?? query.for;
   const pages = Math.max(1, Math.ceil(total / PAGE_SIZE));
   if (total > 0 && query.page > pages) {
     problems.page = `Page ${query.page} is past the end of this list: it has ${pages} ${pages === 1 ? "page" : "pages"}.`;
   }
   return {
-    guides: rows.map(({ id: _id, revisionId, ...g }) => ({
-      ...g,
-      fitment: fitmentRows.filter((f) => f.revisionId === revisionId).map(({ revisionId: _r, ...f }) => f),
-    })),
+    guides: rows.map(({ id: _id, revisionId, ...g }) => {
+      const fitment = fitmentRows.filter((f) => f.revisionId === revisionId).map(({ revisionId: _r, ...f }) => f);
+      const listed = variant ? fitment.find((f) => f.variantId === variant) : undefined;
+      return {
+        ...g,
+        fitment,
+        /** How the guide fits the variant the address names (`fits` or `for`), with the author's note. */
+        ...(variant ? { vehicleFit: { status: listed?.status ?? ("not-listed" as const), note: listed?.note ?? null } } : {}),
+        /** With a search: the title, the summary and a passage of the steps as HTML, the matched words in <mark>. */
+        ...(highlights ? { highlight: highlights.get(revisionId) ?? null } : {}),
+      };
+    }),
     total,
     page: query.page,
     pageSize: PAGE_SIZE,
@@ -281,14 +317,76 @@ export async function libraryAnswer(
     facets,
     /** What in the query could not be used, by field (year, q, page), as a sentence for the reader. */
     problems,
+    /** For an empty list: the filters that, left out one at a time, would list some guides. */
+    relax,
   };
+}
+
+/** The SQL order of a query's list: its sort, else a search's rank, else newest; ties newest first. */
+function listOrder(query: LibraryQuery): SQL {
+  const newest = sql`g.published_at DESC, g.id DESC`;
+  if (query.sort === "shortest") return sql`g.minutes ASC, ${newest}`;
+  if (query.sort === "fits") {
+    return sql`(SELECT count(*) FROM fitment_reports r WHERE r.guide_id = g.id AND r.status = 'fits' AND r.hidden_at IS NULL) DESC, ${newest}`;
+  }
+  if (!query.sort && query.q && ftsQuery(query.q)) return sql`s.rank, ${newest}`;
+  return newest;
+}
+
+/**
+ * Readers' fitment reports change without touching a guide, so what is computed from them is kept
+ * by this stamp: how many reports there are, the newest, the last change, how many are hidden and
+ * how many count as "fits".
+ */
+export async function readReportsStamp(db: Db): Promise<string> {
+  const [row] = await db.all<Record<string, number | null>>(sql`
+    SELECT count(*) AS n, max(id) AS last, max(updated_at) AS touched, count(hidden_at) AS hidden,
+      sum(status = 'fits' AND hidden_at IS NULL) AS fits FROM fitment_reports`);
+  return [row?.n, row?.last, row?.touched, row?.hidden, row?.fits].map((v) => Number(v ?? 0)).join(".");
+}
+
+/** The filters a reader can take away from an empty list, one at a time, in the order the page shows them. */
+export const RELAXABLE = ["q", "vehicle", "year", "fits", "powertrain", "drivetrain", "category", "difficulty"] as const;
+export type Relaxable = (typeof RELAXABLE)[number];
+
+/** The query without one filter, or null when it does not have that filter. */
+export function withoutFilter(query: LibraryQuery, field: Relaxable): LibraryQuery | null {
+  if (field === "vehicle") {
+    if (!query.make && !query.model && !query.generation) return null;
+    return { ...query, make: undefined, model: undefined, generation: undefined };
+  }
+  if (query[field] === undefined) return null;
+  return { ...query, [field]: undefined };
+}
+
+/**
+ * For an empty list, how many guides each filter left out on its own would bring back (only
+ * those that bring some): the page offers them as links.
+ */
+export async function relaxFilters(query: LibraryQuery, total: number, count: (query: LibraryQuery) => Promise<number>) {
+  const relax: { field: Relaxable; total: number }[] = [];
+  if (total > 0) return relax;
+  for (const field of RELAXABLE) {
+    const without = withoutFilter(query, field);
+    if (!without) continue;
+    const n = await count({ ...without, page: 1 });
+    if (n > 0) relax.push({ field, total: n });
+  }
+  return relax;
+}
+
+/** The number of published guides a query lists, by SQL. */
+async function countPublishedGuides(db: Db, asked: LibraryQuery) {
+  const { query } = usableQuery(asked, asked.year === undefined ? null : await catalogueYears(db));
+  const [row] = await db.all<{ n: number }>(sql`SELECT count(*) AS n FROM ${guideSource(query)} WHERE ${conditions(query)}`);
+  return Number(row?.n ?? 0);
 }
 
 export async function listPublishedGuides(db: Db, asked: LibraryQuery) {
   const { query, problems } = usableQuery(asked, asked.year === undefined ? null : await catalogueYears(db));
   const where = conditions(query);
   const listWhere = conditions(query, undefined, true);
-  const order = query.q && ftsQuery(query.q) ? sql`s.rank, g.published_at DESC, g.id DESC` : sql`g.published_at DESC, g.id DESC`;
+  const order = listOrder(query);
   const offset = (query.page - 1) * PAGE_SIZE;
   const [rows, totalRows, { powertrain, drivetrain }, category, difficulty, vehicle] = await Promise.all([
     db.all<LibraryRow>(sql`SELECT g.id, g.slug, g.title, g.summary, g.category, g.difficulty, g.minutes,
@@ -307,7 +405,71 @@ export async function listPublishedGuides(db: Db, asked: LibraryQuery) {
     total,
     facets: { powertrain, drivetrain, category, difficulty, vehicle },
     problems,
+    relax: await relaxFilters(query, total, (q) => countPublishedGuides(db, q)),
   });
+}
+
+/** Private-use characters FTS5 puts around a match; no guide text the Library shows holds them. */
+const MARK_OPEN = "\uE000";
+const MARK_CLOSE = "\uE001";
+
+const HTML_ESCAPES: Record<string, string> = { "&": "&amp;", "<": "&lt;", ">": "&gt;", '"': "&quot;", "'": "&#39;" };
+
+/**
+ * FTS5's marked text as HTML: every character escaped, the marked runs in <mark>. A stray or
+ * unbalanced marker (text that held one itself) opens or closes nothing twice, and a run left open
+ * is closed, so the result is always well formed.
+ */
+export function markedHtml(marked: string): string {
+  let open = false;
+  // A NUL is no character an HTML page may hold: it is dropped.
+  const html = marked
+    .split(String.fromCharCode(0))
+    .join("")
+    .replace(/[&<>"'\uE000\uE001]/g, (c) => {
+      if (c === MARK_OPEN) {
+        if (open) return "";
+        open = true;
+        return "<mark>";
+      }
+      if (c === MARK_CLOSE) {
+        if (!open) return "";
+        open = false;
+        return "</mark>";
+      }
+      return HTML_ESCAPES[c];
+    });
+  return open ? `${html}</mark>` : html;
+}
+
+/** Words of a passage either side of the match. */
+const SNIPPET_TOKENS = 20;
+
+/**
+ * The matched words of a search in the shown revisions' title, summary and steps (FTS5's
+ * highlight and snippet, asked only for the page's revisions), as safe HTML.
+ */
+async function searchHighlights(db: Db, match: string, revisionIds: number[]) {
+  const found = new Map<number, { title: string; summary: string; steps: string | null }>();
+  if (!revisionIds.length) return found;
+  const open = sql`${MARK_OPEN}`;
+  const close = sql`${MARK_CLOSE}`;
+  const rows = await db.all<{ id: number; title: string; summary: string; steps: string }>(sql`
+    SELECT rowid AS id, highlight(guide_search, 0, ${open}, ${close}) AS title,
+      highlight(guide_search, 1, ${open}, ${close}) AS summary,
+      snippet(guide_search, 2, ${open}, ${close}, '…', ${SNIPPET_TOKENS}) AS steps
+    FROM guide_search WHERE guide_search MATCH ${match} AND rowid IN (${sql.join(
+      revisionIds.map((id) => sql`${id}`),
+      sql`, `,
+    )})`);
+  for (const row of rows) {
+    found.set(Number(row.id), {
+      title: markedHtml(row.title ?? ""),
+      summary: markedHtml(row.summary ?? ""),
+      steps: row.steps?.includes(MARK_OPEN) ? markedHtml(row.steps) : null,
+    });
+  }
+  return found;
 }
 
 type FitmentWithVehicle = LoadedRevision["fitment"][number];

@@ -5,10 +5,27 @@ import { SafetyNotice } from "~/components/chrome";
 import { formatMinutes } from "~/utils/format";
 import { getDb } from "~/db/client.server";
 import { yearsLabel } from "~/models/catalogue.server";
-import { type LibraryQuery, parseLibraryQuery, withoutEmptyParams } from "~/models/library.server";
+import {
+  type LibraryQuery,
+  type LibrarySort,
+  parseLibraryQuery,
+  type Relaxable,
+  withoutEmptyParams,
+  withoutFilter,
+} from "~/models/library.server";
 import { readContentStamps } from "~/models/content-stamps.server";
 import { readCatalogue, readLibrary } from "~/models/reader-cache.server";
-import { CATEGORIES, CATEGORY_LABELS, DIFFICULTY_LABELS, DRIVETRAINS, POWERTRAIN_LABELS, POWERTRAINS } from "~/utils/vocab";
+import type { CatalogueTree } from "~/models/catalogue.server";
+import {
+  CATEGORIES,
+  CATEGORY_LABELS,
+  DIFFICULTY_LABELS,
+  DRIVETRAINS,
+  FITMENT_LABELS,
+  type FitmentStatus,
+  POWERTRAIN_LABELS,
+  POWERTRAINS,
+} from "~/utils/vocab";
 import { Pager } from "~/components/pager";
 import { READER_PAGE } from "~/utils/reader-page";
 import type { Route } from "./+types/library";
@@ -42,7 +59,11 @@ export async function loader({ request }: Route.LoaderArgs) {
   const query = parseLibraryQuery(params);
   const db = await getDb();
   const stamps = await readContentStamps(db);
+  // The variant the cards are judged against: the one the address names. When the reader's current
+  // vehicle is known (vehicles.server.ts), it fills in here:
+  //   query.for ??= query.fits ? undefined : (await currentVehicle(request, db))?.variantId;
   const [result, catalogue] = await Promise.all([readLibrary(db, query, stamps), readCatalogue(db, stamps)]);
+  const readerVariant = variantNamed(catalogue, query.fits ?? query.for);
   const selectedVehicle = [query.make, query.model, query.generation].filter(Boolean).join(".");
   const vehicles = catalogue.flatMap((make) =>
     make.models.flatMap((model) => [
@@ -68,7 +89,81 @@ export async function loader({ request }: Route.LoaderArgs) {
   // The year as typed, so a year the catalogue does not cover stays in the box to be corrected.
   const yearText = (params.get("year") ?? "").slice(0, 20);
   const { problems: _asked, ...shown } = query;
-  return { ...result, query: shown, yearText, vehicles, selectedVehicle };
+  // The variants of the generation picked, for "your variant" and "only guides that fit it".
+  const variantChoices = generationVariants(catalogue, query);
+  // Each filter an empty list could do without, as a link to the same list without it (the
+  // reader's variant stays named for the cards when "fits my vehicle" is the one left out).
+  const relax = result.relax.map((r) => {
+    const without = withoutFilter(shown, r.field) ?? shown;
+    return { ...r, href: libraryHref(r.field === "fits" ? { ...without, for: shown.fits } : without, 1) };
+  });
+  return { ...result, relax, query: shown, yearText, vehicles, selectedVehicle, readerVariant, variantChoices };
+}
+
+/** A variant of the catalogue by id, with the words a card's badge and the filter use for it. */
+function variantNamed(catalogue: CatalogueTree, id: number | undefined) {
+  if (id === undefined) return null;
+  for (const make of catalogue)
+    for (const model of make.models)
+      for (const generation of model.generations)
+        for (const variant of generation.variants)
+          if (variant.id === id) {
+            return { variantId: id, label: `${make.name} ${model.name} ${generation.name} ${variant.name}` };
+          }
+  return { variantId: id, label: "the vehicle asked for (not in the catalogue)" };
+}
+
+function generationVariants(catalogue: CatalogueTree, query: LibraryQuery) {
+  if (!query.make || !query.model || !query.generation) return [];
+  const generation = catalogue
+    .find((m) => m.slug === query.make)
+    ?.models.find((m) => m.slug === query.model)
+    ?.generations.find((g) => g.slug === query.generation);
+  return (generation?.variants ?? [])
+    .filter((v) => v.retiredAt === null || v.id === query.fits || v.id === query.for)
+    .map((v) => ({ id: v.id, name: v.name }));
+}
+
+const SORT_LABELS: Record<LibrarySort, string> = {
+  newest: "Newest first",
+  fits: "Most reported fits",
+  shortest: "Shortest time first",
+};
+
+/** What each filter is called in "Without the … filter". */
+const FILTER_NAMES: Record<Relaxable, string> = {
+  q: "search",
+  vehicle: "vehicle",
+  year: "model year",
+  fits: "“fits my vehicle”",
+  powertrain: "powertrain",
+  drivetrain: "drivetrain",
+  category: "category",
+  difficulty: "difficulty",
+};
+
+const VEHICLE_FIT_STYLE: Record<FitmentStatus | "not-listed", { mark: string; words: string; className: string }> = {
+  fits: { mark: "●", words: FITMENT_LABELS.fits, className: "border-spruce-200 bg-spruce-50 text-spruce-800" },
+  "fits-with-changes": {
+    mark: "◐",
+    words: FITMENT_LABELS["fits-with-changes"],
+    className: "border-brass-100 bg-brass-50 text-brass-700",
+  },
+  "does-not-fit": { mark: "✕", words: FITMENT_LABELS["does-not-fit"], className: "border-rule border-dashed bg-paper text-ink" },
+  "not-listed": { mark: "?", words: "Not listed", className: "border-rule border-dashed bg-paper text-ink-soft" },
+};
+
+/** How a guide fits the reader's variant, in words and a mark (shape as well as colour). */
+function VehicleFit({ fit, label }: { fit: { status: FitmentStatus | "not-listed"; note: string | null }; label: string }) {
+  const style = VEHICLE_FIT_STYLE[fit.status];
+  return (
+    <p className={`mt-3 rounded-md border px-3 py-2 text-sm ${style.className}`}>
+      <span aria-hidden="true">{style.mark} </span>
+      <strong className="font-semibold">{style.words}</strong> for your {label}
+      {fit.status === "not-listed" ? ": the author has not said whether it fits." : null}
+      {fit.note ? <span className="block text-ink-soft">{fit.note}</span> : null}
+    </p>
+  );
 }
 
 /** "3 guides", "1 guide", "no guides": a count that says what it counts. */
@@ -80,11 +175,11 @@ function guidesCount(n: number) {
 /** The Library's address for a query, without empty or default values. */
 function libraryHref(query: Omit<LibraryQuery, "problems">, page: number) {
   const params = new URLSearchParams();
-  const { make, model, generation, year, powertrain, drivetrain, category, difficulty, q } = query;
+  const { make, model, generation, year, powertrain, drivetrain, category, difficulty, q, fits, sort } = query;
   const vehicle = [make, model, generation].filter(Boolean).join(".");
   if (q) params.set("q", q);
   if (vehicle) params.set("vehicle", vehicle);
-  for (const [k, v] of Object.entries({ year, powertrain, drivetrain, category, difficulty })) {
+  for (const [k, v] of Object.entries({ year, powertrain, drivetrain, category, difficulty, fits, for: query.for, sort })) {
     if (v !== undefined) params.set(k, String(v));
   }
   if (page > 1) params.set("page", String(page));
@@ -185,6 +280,10 @@ function useFilterNavigation() {
 
   return {
     formKey,
+    /** A control outside the form (the sort menu) applies the form at once. */
+    apply(form: HTMLFormElement | null) {
+      if (form) endTyping(form);
+    },
     onChange(event: FormEvent<HTMLFormElement>) {
       const form = event.currentTarget;
       const target = event.target;
@@ -221,7 +320,23 @@ function useWideOpen() {
 }
 
 export default function Library({ loaderData }: Route.ComponentProps) {
-  const { guides, total, page, pages, facets, problems, query, yearText, vehicles, selectedVehicle } = loaderData;
+  const {
+    guides,
+    total,
+    page,
+    pages,
+    facets,
+    problems,
+    relax,
+    query,
+    yearText,
+    vehicles,
+    selectedVehicle,
+    readerVariant,
+    variantChoices,
+  } = loaderData;
+  const [scripted, setScripted] = useState(false);
+  useEffect(() => setScripted(true), []);
   const navigation = useNavigation();
   const busy = navigation.state === "loading" && navigation.location.pathname === "/";
   const filters = useFilterNavigation();
@@ -234,6 +349,7 @@ export default function Library({ loaderData }: Route.ComponentProps) {
     query.drivetrain,
     query.category,
     query.difficulty,
+    query.fits,
   ].filter((v) => v !== undefined && v !== "").length;
   const notices = Object.entries(problems).filter(([field]) => field !== "page");
 
@@ -262,6 +378,7 @@ export default function Library({ loaderData }: Route.ComponentProps) {
           </summary>
           <Form
             key={filters.formKey}
+            id="library-filters"
             method="get"
             role="search"
             aria-label="Filter guides"
@@ -299,6 +416,42 @@ export default function Library({ loaderData }: Route.ComponentProps) {
                 </option>
               ))}
             </select>
+            {variantChoices.length ? (
+              <>
+                <label className="mt-5 block text-xs font-semibold uppercase tracking-wider text-ink-soft" htmlFor="for">
+                  Your variant
+                </label>
+                <select
+                  id="for"
+                  name="for"
+                  defaultValue={readerVariant?.variantId ?? ""}
+                  className="mt-2 min-h-11 w-full rounded-md border border-rule bg-paper px-3 py-2 text-sm"
+                >
+                  <option value="">Not chosen</option>
+                  {variantChoices.map((v) => (
+                    <option key={v.id} value={v.id}>
+                      {v.name}
+                    </option>
+                  ))}
+                </select>
+              </>
+            ) : query.for !== undefined ? (
+              <input type="hidden" name="for" value={query.for} />
+            ) : null}
+            {readerVariant ? (
+              <label className="mt-3 flex min-h-11 items-center gap-2 text-sm">
+                <input
+                  type="checkbox"
+                  name="fits"
+                  value={readerVariant.variantId}
+                  defaultChecked={query.fits !== undefined}
+                  className="h-5 w-5 accent-spruce-700"
+                />
+                <span>
+                  Fits my vehicle only <span className="text-ink-soft">({readerVariant.label})</span>
+                </span>
+              </label>
+            ) : null}
             <label className="mt-5 block text-xs font-semibold uppercase tracking-wider text-ink-soft" htmlFor="year">
               Model year
             </label>
@@ -382,9 +535,57 @@ export default function Library({ loaderData }: Route.ComponentProps) {
               ))}
             </div>
           ) : null}
-          <p className="text-sm text-ink-soft">
-            {total === 0 ? "No published guide matches these filters." : `${total} ${total === 1 ? "guide" : "guides"}`}
-          </p>
+          <div className="flex flex-wrap items-center justify-between gap-2">
+            <p className="text-sm text-ink-soft">
+              {total === 0 ? "No published guide matches these filters." : `${total} ${total === 1 ? "guide" : "guides"}`}
+            </p>
+            <div className="flex items-center gap-2">
+              <label htmlFor="sort" className="text-sm text-ink-soft">
+                Order
+              </label>
+              <select
+                id="sort"
+                name="sort"
+                form="library-filters"
+                key={filters.formKey}
+                defaultValue={query.sort ?? ""}
+                onChange={(event) => filters.apply(event.currentTarget.form)}
+                className="min-h-11 rounded-md border border-rule bg-white px-3 py-2 text-sm"
+              >
+                <option value="">{query.q ? "Best match first" : "Newest first"}</option>
+                {(Object.keys(SORT_LABELS) as LibrarySort[])
+                  .filter((sort) => sort !== "newest" || query.q)
+                  .map((sort) => (
+                    <option key={sort} value={sort}>
+                      {SORT_LABELS[sort]}
+                    </option>
+                  ))}
+              </select>
+              {scripted ? null : (
+                <button
+                  type="submit"
+                  form="library-filters"
+                  className="min-h-11 rounded-md border border-rule px-3 py-2 text-sm text-ink-soft hover:bg-paper-deep"
+                >
+                  Sort
+                </button>
+              )}
+            </div>
+          </div>
+          {total === 0 && relax.length ? (
+            <div className="mt-3 rounded-md border border-rule bg-white px-4 py-3 text-sm">
+              <p className="text-ink">Leave out one filter to see more:</p>
+              <ul className="mt-1">
+                {relax.map((r) => (
+                  <li key={r.field}>
+                    <Link to={r.href} className="inline-flex min-h-11 items-center font-semibold text-spruce-800 underline">
+                      Without the {FILTER_NAMES[r.field]} filter: {guidesCount(r.total)}
+                    </Link>
+                  </li>
+                ))}
+              </ul>
+            </div>
+          ) : null}
           {problems.page ? (
             <p className="mt-3 rounded-md border-l-4 border-brass-500 bg-brass-50 px-4 py-3 text-sm text-ink" id="problem-page">
               {problems.page}{" "}
@@ -409,10 +610,31 @@ export default function Library({ loaderData }: Route.ComponentProps) {
                   </div>
                   <h2 className="mt-3 font-serif text-xl font-semibold leading-snug text-spruce-900 sm:text-2xl">
                     <Link to={`/guides/${g.slug}`} className="hover:underline" prefetch="intent">
-                      {g.title}
+                      {g.highlight ? (
+                        // Escaped by markedHtml: only the <mark> around matched words is markup.
+                        // biome-ignore lint/security/noDangerouslySetInnerHtml: escaped text with <mark> only
+                        <span dangerouslySetInnerHTML={{ __html: g.highlight.title }} />
+                      ) : (
+                        g.title
+                      )}
                     </Link>
                   </h2>
-                  <p className="mt-2 text-ink-soft">{g.summary}</p>
+                  {g.highlight ? (
+                    <>
+                      {/* biome-ignore lint/security/noDangerouslySetInnerHtml: escaped text with <mark> only */}
+                      <p className="search-marks mt-2 text-ink-soft" dangerouslySetInnerHTML={{ __html: g.highlight.summary }} />
+                      {g.highlight.steps ? (
+                        <p className="search-marks mt-2 border-l-2 border-rule pl-3 text-sm text-ink-soft">
+                          <span className="font-medium text-ink">In the steps: </span>
+                          {/* biome-ignore lint/security/noDangerouslySetInnerHtml: escaped text with <mark> only */}
+                          <span dangerouslySetInnerHTML={{ __html: g.highlight.steps }} />
+                        </p>
+                      ) : null}
+                    </>
+                  ) : (
+                    <p className="mt-2 text-ink-soft">{g.summary}</p>
+                  )}
+                  {g.vehicleFit && readerVariant ? <VehicleFit fit={g.vehicleFit} label={readerVariant.label} /> : null}
                   <FitmentSummary rows={g.fitment} />
                   <p className="mt-3 text-sm text-ink-soft">by {g.author}</p>
                 </article>

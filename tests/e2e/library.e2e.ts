@@ -1,5 +1,6 @@
-import { expect, inject, it } from "vitest";
-import { openPage, screenshot, sharedBrowser } from "./browser";
+import { AxeBuilder } from "@axe-core/playwright";
+import { describe, expect, inject, it } from "vitest";
+import { launchBrowser, openPage, screenshot, sharedBrowser } from "./browser";
 
 const origin = inject("origin");
 const browser = sharedBrowser();
@@ -85,7 +86,7 @@ it("Clear puts every filter back, and the next change applies only itself", asyn
   await page.goto(`${origin}/`);
   await page.waitForLoadState("networkidle");
   const blank = await filterValues(page);
-  expect(blank).toEqual({ q: "", vehicle: "", year: "", powertrain: "", drivetrain: "", category: "", difficulty: "" });
+  expect(blank).toEqual({ q: "", vehicle: "", year: "", powertrain: "", drivetrain: "", category: "", difficulty: "", sort: "" });
 
   await page.getByRole("radio", { name: /^Gasoline/ }).check();
   await page.waitForURL(/powertrain=gas/);
@@ -167,4 +168,86 @@ it("on a phone the filters fold away and the first guide is on the first screen"
   expect(await page.getByRole("searchbox", { name: "Search" }).isVisible()).toBe(true);
   expect(await summary.isVisible()).toBe(false);
   expect(errors).toEqual([]);
+});
+
+/** Library states of issue 13: a search with marked words, an empty list with its suggestions, a variant's badges and the "fits" filter. */
+const LIBRARY_STATES = {
+  search: "/?q=relay",
+  empty: "/?q=relay&difficulty=5",
+  variant: "/?vehicle=norvik.fjell.f3&for=4",
+  fits: "/?vehicle=norvik.fjell.f3&for=4&fits=4&sort=shortest",
+};
+
+describe("the Library's sorts, search marks, suggestions and variant", () => {
+  for (const [name, path] of Object.entries(LIBRARY_STATES)) {
+    it(`${name}: no serious or critical axe violation, and at 360 px no sideways scroll and 44 px targets`, async () => {
+      const { page, errors } = await openPage(browser());
+      await page.setViewportSize({ width: 360, height: 780 });
+      await page.goto(`${origin}${path}`);
+      await page.waitForLoadState("networkidle");
+      await page.locator("summary", { hasText: "Filters and search" }).click();
+      // axe-core's WCAG 2.x A and AA rules (Deque, axe-core rule descriptions).
+      const result = await new AxeBuilder({ page }).withTags(["wcag2a", "wcag2aa", "wcag21a", "wcag21aa", "wcag22aa"]).analyze();
+      const grave = result.violations
+        .filter((v) => v.impact === "serious" || v.impact === "critical")
+        .map((v) => `${v.id} (${v.impact}): ${v.nodes.map((n) => n.target.join(" ")).join(", ")}`);
+      expect(grave).toEqual([]);
+      expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(360);
+      // WCAG 2.2 SC 2.5.8 asks 24 px; the issue asks 44 px (WCAG 2.5.5 AAA): a control inside a
+      // label counts by its label, the skip link only shows when focused.
+      const small = await page.evaluate(() =>
+        [...document.querySelectorAll("main a, main button, main select, main input, main summary")]
+          .filter((el) => !el.closest("label"))
+          .map((el) => ({ el, box: el.getBoundingClientRect() }))
+          .filter(({ box }) => box.width > 0 && box.height > 0 && box.height < 44)
+          .map(({ el, box }) => `${el.tagName} "${(el.textContent ?? "").trim().slice(0, 30)}" ${Math.round(box.height)} px`),
+      );
+      expect(small).toEqual([]);
+      await screenshot(page, `library-360-${name}`);
+      expect(errors).toEqual([]);
+    });
+  }
+
+  it("a reader picks a variant, keeps only guides that fit it, orders them and sees the badges", async () => {
+    const { page, errors } = await openPage(browser());
+    await page.goto(`${origin}/`);
+    await page.waitForLoadState("networkidle");
+    await page.getByLabel("Vehicle").selectOption("norvik.fjell.f3");
+    await page.waitForURL(/vehicle=norvik.fjell.f3/);
+    await page.getByLabel("Your variant").selectOption({ label: "2.0 hybrid AWD" });
+    await page.waitForURL(/for=4/);
+    const before = await page.locator("article h2").count();
+    // Every card says how the guide fits the variant.
+    expect(await page.getByText(/for your Norvik Fjell F3 2\.0 hybrid AWD/).count()).toBe(before);
+    await page.getByRole("checkbox", { name: /Fits my vehicle only/ }).check();
+    await page.waitForURL(/fits=4/);
+    await expect.poll(() => page.getByText(/does not fit for your|Not listed for your/i).count()).toBe(0);
+    await page.getByLabel("Order").selectOption({ label: "Shortest time first" });
+    await page.waitForURL(/sort=shortest/);
+    // The address holds the whole state: opened afresh it shows the same list.
+    const titles = await page.locator("article h2").allTextContents();
+    await page.goto(page.url());
+    expect(await page.locator("article h2").allTextContents()).toEqual(titles);
+    await screenshot(page, "library-fits-shortest");
+    expect(errors).toEqual([]);
+  });
+
+  it("works as plain links and a plain form without JavaScript", async () => {
+    const context = await launchBrowser({ javaScriptEnabled: false });
+    try {
+      const page = await context.newPage();
+      await page.goto(`${origin}/?q=relay&difficulty=5`);
+      await page.getByRole("link", { name: /Without the difficulty filter: \d+ guides?/ }).click();
+      await page.waitForURL((url) => !url.search.includes("difficulty"));
+      expect(await page.locator("article mark").count()).toBeGreaterThan(0);
+      await page.locator("summary", { hasText: "Filters and search" }).click();
+      await page.getByRole("radio", { name: /^Gasoline/ }).check();
+      await page.getByLabel("Order").selectOption({ label: "Shortest time first" });
+      await page.getByRole("button", { name: "Sort" }).click();
+      await page.waitForURL(/sort=shortest/);
+      expect(new URL(page.url()).searchParams.get("powertrain")).toBe("gas");
+    } finally {
+      await context.close();
+    }
+  });
 });

@@ -1,3 +1,4 @@
+import { sql } from "drizzle-orm";
 import fc from "fast-check";
 import { beforeAll, describe, expect, it } from "vitest";
 import type { Db } from "~/db/client.server";
@@ -15,6 +16,7 @@ import { useTestDatabase } from "../support/base-db";
  */
 let db: Db;
 let vehicles: { make: string; model: string; generation: string }[];
+let variantIds: number[];
 
 beforeAll(async () => {
   useTestDatabase("library-index");
@@ -23,6 +25,18 @@ beforeAll(async () => {
   vehicles = catalogue.flatMap((make) =>
     make.models.flatMap((model) => model.generations.map((g) => ({ make: make.slug, model: model.slug, generation: g.slug }))),
   );
+  variantIds = catalogue.flatMap((make) => make.models.flatMap((m) => m.generations.flatMap((g) => g.variants.map((v) => v.id))));
+  // Invented readers' reports, so "most reported fits" has something to order by: per published
+  // guide and variant a status drawn from a fixed pattern, some hidden, some by other readers.
+  await db.run(sql`
+    INSERT INTO fitment_reports (guide_id, variant_id, user_id, status, note, hidden_at, hidden_reason)
+    SELECT g.id, v.id, u.id,
+      CASE (g.id + v.id + u.id) % 3 WHEN 0 THEN 'fits' WHEN 1 THEN 'fits-with-changes' ELSE 'does-not-fit' END,
+      'invented report',
+      CASE WHEN (g.id * 7 + v.id + u.id) % 5 = 0 THEN 1700000000000 END,
+      CASE WHEN (g.id * 7 + v.id + u.id) % 5 = 0 THEN 'off-topic' END
+    FROM guides g JOIN variants v JOIN users u
+    WHERE g.state = 'published' AND (g.id * 31 + v.id * 17 + u.id * 13) % 4 = 0`);
 });
 
 const optional = <T>(arb: fc.Arbitrary<T>) => fc.option(arb, { nil: undefined });
@@ -38,6 +52,10 @@ function queries() {
     difficulty: optional(fc.integer({ min: 1, max: 5 })),
     q: optional(fc.constantFrom("lamp", "relay", "fuse", "bracket", "harness", "cargo outlet", "zzqx", "12")),
     page: fc.integer({ min: 1, max: 3 }),
+    sort: optional(fc.constantFrom("newest", "fits", "shortest") as fc.Arbitrary<"newest" | "fits" | "shortest">),
+    // A variant by its place in the catalogue, or an id no variant has.
+    fits: optional(fc.oneof(fc.nat({ max: 1000 }), fc.constant(-1))),
+    for: optional(fc.nat({ max: 1000 })),
   });
 }
 
@@ -54,6 +72,9 @@ function toQuery(drawn: ReturnType<typeof queries> extends fc.Arbitrary<infer T>
     difficulty: drawn.difficulty,
     q: drawn.q,
     page: drawn.page,
+    sort: drawn.sort,
+    fits: drawn.fits === undefined ? undefined : drawn.fits < 0 ? 999_999 : variantIds[drawn.fits % variantIds.length],
+    for: drawn.for === undefined ? undefined : variantIds[drawn.for % variantIds.length],
   };
 }
 
@@ -64,7 +85,7 @@ describe("the Library's in-memory index", () => {
         const query = toQuery(drawn);
         expect(await listFromIndex(db, query)).toEqual(await listPublishedGuides(db, query));
       }),
-      { numRuns: 300 },
+      { numRuns: 400 },
     );
   });
 
