@@ -1,10 +1,10 @@
 import { Form, Link } from "react-router";
+import { HIDE_REASON_MAX, REPORT_NOTE_MAX } from "~/models/reader-limits";
 import type { GuideGarage } from "~/routes/guide-garage.server";
 import type { FormFailure } from "~/utils/forms";
 import { formatDate } from "~/utils/format";
 import { FITMENT_LABELS, FITMENT_STATUSES, type FitmentStatus } from "~/utils/vocab";
 
-const NOTE_MAX = 500;
 const primary = "min-h-11 rounded-md bg-spruce-800 px-4 py-2 font-semibold text-paper hover:bg-spruce-700";
 const quiet =
   "min-h-11 rounded-md border border-rule bg-white px-4 py-2 text-sm font-semibold text-spruce-800 hover:bg-paper-deep";
@@ -80,14 +80,14 @@ export function ReportForm({ slug, vehicles, reports, failure }: ReportFormProps
           id="report-note"
           name="note"
           rows={3}
-          maxLength={NOTE_MAX}
+          maxLength={REPORT_NOTE_MAX}
           defaultValue={note ?? ""}
           aria-invalid={errors.note ? true : undefined}
           aria-describedby={errors.note ? "report-note-error" : "report-note-hint"}
           className="mt-1 w-full rounded-md border border-rule bg-paper px-3 py-2"
         />
         <p id="report-note-hint" className="mt-1 text-xs text-ink-soft">
-          Up to {NOTE_MAX} characters. Shown on this page without your name.
+          Up to {REPORT_NOTE_MAX} characters. Shown on this page without your name.
         </p>
         {errors.note ? (
           <p id="report-note-error" className="mt-1 text-sm font-medium text-z-danger">
@@ -161,7 +161,7 @@ export function FitmentReports({ garage, slug }: { garage: GuideGarage; slug: st
                               name="reason"
                               required
                               minLength={3}
-                              maxLength={300}
+                              maxLength={HIDE_REASON_MAX}
                               className="mt-1 min-h-11 w-full rounded-md border border-rule bg-white px-3 py-2"
                             />
                           </div>

@@ -10,10 +10,8 @@ import { type Actor, can } from "~/utils/permissions";
 import { FITMENT_STATUSES, type FitmentStatus } from "~/utils/vocab";
 import { auditInsert } from "./audit.server";
 import { outboxInsert } from "./outbox.server";
+import { HIDE_REASON_MAX, REPORT_NOTE_MAX } from "./reader-limits";
 import { findOwnVehicle, variantFacts, variantIdField, vehicleIdField, vehicleLabel } from "./vehicles.server";
-
-export const REPORT_NOTE_MAX = 500;
-export const HIDE_REASON_MAX = 300;
 
 /** An optional id: a form's empty choice and JSON's null mean none. */
 const optionalId = <T extends z.ZodType>(field: T) =>

@@ -7,10 +7,10 @@ import { getUser } from "~/services/auth/session.server";
 import { readVehicleCookie } from "~/services/vehicle-cookie.server";
 import { AppError, invalid, notFound } from "~/utils/errors";
 import { type Actor, assertCan } from "~/utils/permissions";
+import { NICKNAME_MAX } from "./reader-limits";
 
 /** A reader keeps a handful of vehicles, not a fleet register. */
 export const MAX_SAVED_VEHICLES = 20;
-export const NICKNAME_MAX = 40;
 
 /** A form's digits become a number; anything else that is not a number (an array, true) is refused, not coerced. */
 const digits = (value: unknown) => (typeof value === "string" && /^\s*\d{1,10}\s*$/.test(value) ? Number(value) : value);

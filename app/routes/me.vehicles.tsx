@@ -3,6 +3,7 @@ import { z } from "zod";
 import { Notice } from "~/components/form";
 import { VehiclePicker } from "~/components/vehicle-picker";
 import { getDb } from "~/db/client.server";
+import { NICKNAME_MAX } from "~/models/reader-limits";
 import { pickerOptions } from "~/models/vehicle-picker.server";
 import {
   deleteVehicle,
@@ -10,7 +11,6 @@ import {
   listVehicles,
   MAX_SAVED_VEHICLES,
   makeCurrent,
-  NICKNAME_MAX,
   pickedVehicle,
   saveVehicle,
   vehicleIdField,
