@@ -40,6 +40,13 @@ export default [
   route("workbench/guides/:id", "routes/workbench.guide.tsx"),
   route("workbench/guides/:id/preview", "routes/workbench.guide-preview.tsx"),
   route("api/me", "routes/api.me.ts"),
+  // Readers' vehicles and fitment reports.
+  route("me/vehicles", "routes/me.vehicles.tsx"),
+  route("pick-vehicle", "routes/pick-vehicle.ts"),
+  route("guides/:slug/fitment-reports", "routes/guide.fitment-reports.tsx"),
+  route("api/me/vehicles", "routes/api.me-vehicles.ts"),
+  route("api/me/vehicles/:id", "routes/api.me-vehicle.ts"),
+  route("api/guides/:slug/fitment-reports", "routes/api.guide-fitment-reports.ts"),
   // The review desk: editors review, sign off, decide and unpublish.
   route("review", "routes/review.tsx"),
   route("review/:revisionId", "routes/review.revision.tsx"),

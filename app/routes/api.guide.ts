@@ -1,4 +1,5 @@
 import { getDb } from "~/db/client.server";
+import { fitmentTallies } from "~/models/fitment-reports.server";
 import { getPublishedGuide } from "~/models/library.server";
 import { unpublishedGuide } from "~/models/review-desk.server";
 import { getStorage } from "~/services/storage.server";
@@ -19,12 +20,15 @@ export const loader = apiHandler(async ({ params, request }: Route.LoaderArgs) =
     }
     throw new AppError(404, "not-found", `No published guide is called "${params.slug}".`);
   }
-  const { id: _id, ...rest } = guide;
+  const { id, ...rest } = guide;
+  // Readers' reports per variant, hidden ones not counted; a new report changes the answer's ETag.
+  const fitmentReports = await fitmentTallies(db, id);
   return publicJson(request, {
     ...rest,
     steps: rest.steps.map(({ callouts, ...step }) => ({
       ...step,
       callouts: callouts.map(({ result, ...callout }) => ({ ...callout, computed: result })),
     })),
+    fitmentReports,
   });
 });

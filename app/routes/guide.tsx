@@ -1,4 +1,6 @@
+import { FitmentReports } from "~/components/fitment-reports";
 import { GuideArticle, type ShownGuide, stepBodyId } from "~/components/guide-article";
+import { GuideVehicleLine } from "~/components/vehicle-fitment-line";
 import { getDb } from "~/db/client.server";
 import { getPublishedGuide, type PublishedGuide } from "~/models/library.server";
 import { unpublishedGuide } from "~/models/review-desk.server";
@@ -13,6 +15,7 @@ import { formatDate } from "~/utils/format";
 import { pageErrorResponse } from "~/utils/http.server";
 import { READER_PAGE } from "~/utils/reader-page";
 import type { Route } from "./+types/guide";
+import { guideGarage } from "./guide-garage.server";
 
 type Photo = PublishedGuide["steps"][number]["photos"][number];
 
@@ -109,6 +112,8 @@ export async function loader({ params, request, context }: Route.LoaderArgs) {
     url,
     image,
     print: new URL(request.url).searchParams.get("print") === "1",
+    // The reader's vehicle and readers' fitment reports: per request, never part of the kept guide JSON.
+    garage: await guideGarage({ request, context }, db, found.id),
   };
 }
 
@@ -141,8 +146,15 @@ export const meta: Route.MetaFunction = ({ data }) => {
 };
 
 export default function GuidePage({ loaderData }: Route.ComponentProps) {
-  const { url, print } = loaderData;
-  return <GuideArticle guide={readGuide(loaderData.guide)} url={url} print={print} />;
+  const { url, print, garage } = loaderData;
+  const guide = readGuide(loaderData.guide);
+  return (
+    <>
+      {print ? null : <GuideVehicleLine garage={garage} fitment={guide.fitment} slug={guide.slug} />}
+      <GuideArticle guide={guide} url={url} print={print} />
+      {print ? null : <FitmentReports garage={garage} slug={guide.slug} />}
+    </>
+  );
 }
 
 export { RouteErrorBoundary as ErrorBoundary } from "~/components/error-page";

@@ -9,6 +9,7 @@ import { formHeaders, handleForm } from "~/utils/forms.server";
 import { rememberDevice } from "~/services/auth/device.server";
 import { redirectIfSignedIn } from "~/services/auth/guards.server";
 import { safeRedirect } from "~/services/auth/redirect";
+import { hasVehicleCookie } from "~/services/vehicle-cookie.server";
 import { startSession } from "~/services/auth/session.server";
 import type { Route } from "./+types/login";
 
@@ -65,7 +66,8 @@ export async function action({ request }: Route.ActionArgs) {
     const headers = new Headers({ "Set-Cookie": await startSession(request, signed.user.id) });
     // Remembers this browser, so a guesser on the same address cannot lock the owner out of it.
     headers.append("Set-Cookie", await rememberDevice(request, signed.user.id));
-    return redirect(safeRedirect(input.redirectTo), { headers });
+    // A vehicle picked before signing in is offered on My vehicles, unless the reader was going somewhere.
+    return redirect(safeRedirect(input.redirectTo, hasVehicleCookie(request) ? "/me/vehicles" : "/"), { headers });
   });
 }
 

@@ -1,7 +1,9 @@
 import { Form, Link } from "react-router";
 import { z } from "zod";
 import { Notice } from "~/components/form";
+import { WorkbenchFitmentReports } from "~/components/workbench-fitment-reports";
 import { getDb } from "~/db/client.server";
+import { reportsForAuthor } from "~/models/fitment-reports.server";
 import { startNextRevision } from "~/models/review.server";
 import { listWorkbench, type WorkbenchGuide } from "~/models/workbench.server";
 import { requireUser } from "~/services/auth/guards.server";
@@ -16,8 +18,10 @@ export const meta: Route.MetaFunction = () => [{ title: "Workbench · Torqueleaf
 export async function loader(args: Route.LoaderArgs) {
   const user = await requireUser(args);
   // A reader sees how to become an author instead of a refusal.
-  if (!can(user, "create:guide")) return { writer: false as const, guides: [] };
-  return { writer: true as const, guides: await listWorkbench(await getDb(), user) };
+  if (!can(user, "create:guide")) return { writer: false as const, guides: [], reports: [] };
+  const db = await getDb();
+  const [guides, reports] = await Promise.all([listWorkbench(db, user), reportsForAuthor(db, user.id)]);
+  return { writer: true as const, guides, reports };
 }
 
 const startRevisionForm = z.object({ intent: z.literal("start-revision"), guideId: z.coerce.number().int().positive() });
@@ -152,7 +156,7 @@ export default function Workbench({ loaderData, actionData }: Route.ComponentPro
       </div>
     );
   }
-  const { guides } = loaderData;
+  const { guides, reports } = loaderData;
   return (
     <div className="mx-auto max-w-4xl px-4 py-10 sm:px-6">
       <div className="flex flex-wrap items-end justify-between gap-4">
@@ -187,6 +191,7 @@ export default function Workbench({ loaderData, actionData }: Route.ComponentPro
           ))}
         </ul>
       )}
+      <WorkbenchFitmentReports reports={reports} />
     </div>
   );
 }

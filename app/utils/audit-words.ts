@@ -31,6 +31,7 @@ export const AUDIT_ACTION_LABELS: Record<string, string> = {
   "catalogue.variant-retire": "Retired a variant",
   "catalogue.variant-restore": "Offered a retired variant again",
   "catalogue.variant-delete": "Deleted a variant",
+  "fitment-report.hide": "Hid a reader's fitment report",
 };
 
 type Describable = {

@@ -11,6 +11,7 @@ const EDITOR = [
   "signoff:caution:any",
   "publish:guide:any",
   "unpublish:guide:any",
+  "hide:fitment-report:any",
 ] as const;
 const ADMIN = [...EDITOR, "manage:users", "manage:catalogue", "read:audit"] as const;
 

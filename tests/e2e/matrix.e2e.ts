@@ -98,6 +98,38 @@ const MATRIX: Record<string, Probe[]> = {
     { path: "/api/me", expect: all(200) },
     { method: "POST", path: "/api/me", json: {}, expect: all(405) },
   ],
+  // A reader's vehicles and fitment reports: their own, signed in; hiding a report is the editors'.
+  "/me/vehicles": [
+    { path: "/me/vehicles", expect: signedIn(200, 302) },
+    { method: "POST", path: "/me/vehicles", form: { intent: "none" }, expect: signedIn(400, 302) },
+  ],
+  // The picker goes back with a message, for a visitor (cookie) and a reader (saved) alike.
+  "/pick-vehicle": [
+    { path: "/pick-vehicle", expect: all(302) },
+    { method: "POST", path: "/pick-vehicle", form: { intent: "none", returnTo: "/" }, expect: all(302) },
+  ],
+  "/guides/:slug/fitment-reports": [
+    { path: `/guides/${fixtures.publishedSlug}/fitment-reports`, expect: signedIn(200, 302) },
+    { path: `/guides/${fixtures.unpublishedSlug}/fitment-reports`, expect: signedIn(404, 302) },
+    {
+      method: "POST",
+      path: `/guides/${fixtures.publishedSlug}/fitment-reports`,
+      form: { intent: "hide", reportId: "999999999", reason: "Matrix probe" },
+      expect: only(["editor", "admin"], 404, 403, 302),
+    },
+  ],
+  "/api/me/vehicles": [
+    { path: "/api/me/vehicles", expect: signedIn(200, 401) },
+    { method: "POST", path: "/api/me/vehicles", json: {}, expect: signedIn(400, 401) },
+  ],
+  "/api/me/vehicles/:id": [
+    { method: "DELETE", path: "/api/me/vehicles/999999999", expect: signedIn(404, 401) },
+    { path: "/api/me/vehicles/999999999", expect: all(405) },
+  ],
+  "/api/guides/:slug/fitment-reports": [
+    { method: "POST", path: `/api/guides/${fixtures.publishedSlug}/fitment-reports`, json: {}, expect: signedIn(400, 401) },
+    { path: `/api/guides/${fixtures.publishedSlug}/fitment-reports`, expect: all(405) },
+  ],
   // Pages for signing in send a signed-in visitor onwards.
   "/signup": [
     { path: "/signup", expect: all(302, { anonymous: 200 }) },

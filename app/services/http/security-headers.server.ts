@@ -4,6 +4,7 @@ import { createContext, type MiddlewareFunction, type RouterContextProvider } fr
 import { PRINT_STYLE } from "~/components/print-style";
 import { DIAGRAM_STYLE } from "~/engine/diagram";
 import { authContext } from "~/services/auth/session.server";
+import { hasVehicleCookie } from "~/services/vehicle-cookie.server";
 import { type Env, env } from "~/utils/env.server";
 import { refuseUnsupportedMethods } from "./request-shape.server";
 
@@ -151,9 +152,9 @@ function withHeaders(response: Response, headers: Record<string, string>): Respo
 /**
  * The first root middleware: gives the request its nonce, then puts the security headers on whatever
  * the routes answer. A page (a document or its `.data`) for a signed-in member, or one that sets a
- * cookie, is never stored by the browser or a shared cache.
+ * cookie, or one for a visitor with a picked vehicle, is never stored by the browser or a shared cache.
  */
-export const securityHeadersMiddleware: MiddlewareFunction<Response> = async ({ context }, next) => {
+export const securityHeadersMiddleware: MiddlewareFunction<Response> = async ({ context, request }, next) => {
   const nonce = createNonce();
   context.set(nonceContext, nonce);
   const secure = (response: Response) => {
@@ -163,7 +164,8 @@ export const securityHeadersMiddleware: MiddlewareFunction<Response> = async ({ 
     // A 304 has none: the browser keeps the policy that came with the page it already has, whose
     // scripts carry that policy's nonce (RFC 9111 §4.3.4 updates only the headers a 304 sends).
     if (response.headers.has("content-security-policy") || response.status === 304) delete headers["Content-Security-Policy"];
-    if (isPage(response) && (isSignedIn(context) || response.headers.has("set-cookie"))) {
+    // A visitor's picked vehicle (vehicle-cookie.server.ts) makes pages theirs as much as a session does.
+    if (isPage(response) && (isSignedIn(context) || hasVehicleCookie(request) || response.headers.has("set-cookie"))) {
       headers["Cache-Control"] = "private, no-store";
     }
     return withHeaders(response, headers);
