@@ -1,4 +1,6 @@
 import { GuideArticle, type ShownGuide, stepBodyId } from "~/components/guide-article";
+import { KeepOnDevice } from "~/components/keep-on-device";
+import { StepDoneTick, WorkThroughProgress, WorkThroughProvider } from "~/components/work-through";
 import { getDb } from "~/db/client.server";
 import { getPublishedGuide, type PublishedGuide } from "~/models/library.server";
 import { unpublishedGuide } from "~/models/review-desk.server";
@@ -142,7 +144,19 @@ export const meta: Route.MetaFunction = ({ data }) => {
 
 export default function GuidePage({ loaderData }: Route.ComponentProps) {
   const { url, print } = loaderData;
-  return <GuideArticle guide={readGuide(loaderData.guide)} url={url} print={print} />;
+  const guide = readGuide(loaderData.guide);
+  const work = print
+    ? undefined
+    : {
+        headerActions: <KeepOnDevice guide={guide} />,
+        beforeSteps: <WorkThroughProgress />,
+        afterStep: (index: number) => <StepDoneTick index={index} />,
+      };
+  return (
+    <WorkThroughProvider slug={guide.slug} revision={guide.revision.number} stepCount={guide.steps.length}>
+      <GuideArticle guide={guide} url={url} print={print} work={work} />
+    </WorkThroughProvider>
+  );
 }
 
 export { RouteErrorBoundary as ErrorBoundary } from "~/components/error-page";
