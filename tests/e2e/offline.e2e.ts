@@ -66,8 +66,9 @@ for (const viewport of [
   { width: 1366, height: 900 },
 ]) {
   it(`at ${viewport.width} px a signed-in reader keeps a guide, opens it without signal with its photos, and ticks made offline reach the server`, async () => {
-    context = await launchBrowser({ viewport });
-    const { page, errors } = await openPage(context);
+    const browser = await launchBrowser({ viewport });
+    context = browser;
+    const { page, errors } = await openPage(browser);
     await signIn(page, "reader@torqueleaf.test");
     // Start from no ticks, whatever an earlier run left.
     const before = (await (await context.request.get(TICKS)).json()) as { revision: number; done: number[] };
@@ -107,7 +108,7 @@ for (const viewport of [
     // The signal returns: the page hears `online` and the worker sends the queued ticks.
     await context.setOffline(false);
     await expect
-      .poll(async () => ((await (await context?.request.get(TICKS))?.json()) as { done: number[] }).done, { timeout: 20_000 })
+      .poll(async () => ((await (await browser.request.get(TICKS)).json()) as { done: number[] }).done, { timeout: 20_000 })
       .toEqual([0, 1]);
     // Online again, the page shows what the server has.
     await page.reload();
