@@ -14,6 +14,7 @@ import { AppError, notFound } from "~/utils/errors";
 import { formatDate } from "~/utils/format";
 import { pageErrorResponse } from "~/utils/http.server";
 import { READER_PAGE } from "~/utils/reader-page";
+import { CATEGORY_LABELS, type Category } from "~/utils/vocab";
 import type { Route } from "./+types/guide";
 
 type Photo = PublishedGuide["steps"][number]["photos"][number];
@@ -121,6 +122,7 @@ export const meta: Route.MetaFunction = ({ data }) => {
   if (!data) return [{ title: "Guide not found · Torqueleaf" }];
   const { url, image } = data;
   const guide = readGuide(data.guide);
+  const revisionPublished = guide.history?.find((h) => h.number === guide.revision.number)?.publishedAt ?? null;
   return [
     { title: `${guide.title} · Torqueleaf` },
     { name: "description", content: guide.summary },
@@ -131,9 +133,14 @@ export const meta: Route.MetaFunction = ({ data }) => {
     { property: "og:title", content: guide.title },
     { property: "og:description", content: guide.summary },
     { property: "og:url", content: url },
+    // The article's own properties (ogp.me, "article" type): when it came out, when this revision did, its section.
+    ...(guide.publishedAt ? [{ property: "article:published_time", content: guide.publishedAt.toISOString() }] : []),
+    ...(revisionPublished ? [{ property: "article:modified_time", content: revisionPublished.toISOString() }] : []),
+    { property: "article:section", content: CATEGORY_LABELS[guide.category as Category] },
     ...(image
       ? [
           { property: "og:image", content: image.url },
+          { property: "og:image:type", content: "image/jpeg" },
           { property: "og:image:width", content: String(image.width) },
           { property: "og:image:height", content: String(image.height) },
           { property: "og:image:alt", content: image.alt },
