@@ -30,6 +30,7 @@ export default [
   route("auth/github/callback", "routes/auth.github.callback.ts"),
   route("auth/github/link", "routes/auth.github.link.tsx"),
   route("me/account", "routes/me.account.tsx"),
+  route("me/checklists/:id/csv", "routes/me.checklist-csv.ts"),
   route("mail/opt-out/:token", "routes/mail.opt-out.tsx"),
   route("contributor-terms", "routes/contributor-terms.tsx"),
   route("admin/users", "routes/admin.users.tsx"),
@@ -46,6 +47,11 @@ export default [
   route("review/:revisionId", "routes/review.revision.tsx"),
   route("api/review/queue", "routes/api.review-queue.ts"),
   route("api/review/:revisionId", "routes/api.review.ts"),
+  // A reader's parts checklists (`:id.csv` on the checklist's address answers its CSV).
+  route("api/checklists", "routes/api.checklists.ts"),
+  route("api/checklists/:id", "routes/api.checklist.ts"),
+  route("api/checklists/:id/items", "routes/api.checklist-items.ts"),
+  route("api/checklists/:id/items/:itemId", "routes/api.checklist-item.ts"),
   // Any other /api address answers in the API's JSON error shape, not with the HTML 404 page.
   route("api/*", "routes/api.not-found.ts"),
   route("*", "routes/not-found.tsx"),

@@ -2,7 +2,8 @@
  * `npm run bench`: the read path measured side by side in one run, against the bare React Router
  * app of bench/bare. No assertions: read the ratios (and, at scale, the goals beside each figure).
  *
- *   npm run bench                    bare page, Library, a guide page and the API, twice; 200 readers
+ *   npm run bench                    bare page, Library, a guide page and the API, twice; 200 readers;
+ *                                    a reader's checklist tick round trip
  *   npm run bench -- --quick         the same in under 2 minutes (shorter runs, 15 s of readers)
  *   npm run bench -- --scale PATH    Library filters and search at scale (a `npm run bench:data` database)
  *   npm run bench -- --models        the model functions in-process on the demo database
@@ -17,6 +18,7 @@ import { baseDataKey } from "../tests/support/services";
 import type { CannonResult } from "./load";
 import { runAuthoring } from "./authoring";
 import { bundleFigures } from "./bundles";
+import { checklistTicks } from "./checklist";
 import { runModels } from "./models";
 import { runScale } from "./scale";
 import {
@@ -56,6 +58,7 @@ const plan = quick
       scaleBudgetMs: 5_000,
       scaleCaseLimitMs: 60_000,
       scaleHttpSeconds: 3,
+      tickRuns: 100,
     }
   : {
       warmupSeconds: 3,
@@ -66,6 +69,7 @@ const plan = quick
       scaleBudgetMs: 20_000,
       scaleCaseLimitMs: 300_000,
       scaleHttpSeconds: 10,
+      tickRuns: 500,
     };
 
 const started = Date.now();
@@ -226,6 +230,17 @@ async function mainRun() {
     ),
   );
   if (reading.errors) console.log(`answers: ${JSON.stringify(reading.statuses)}`);
+
+  const ticks = await checklistTicks(app.origin, GUIDE_SLUG, plan.tickRuns);
+  console.log(
+    `\nChecklist tick round trip: the demo reader ticks and unticks the items of a checklist saved from ${GUIDE_SLUG}, one PATCH /api/checklists/:id/items/:itemId after the other (Torqueleaf)\n`,
+  );
+  console.log(
+    formatTable(
+      ["ticks", "p50 ms", "p99 ms", "goal p99"],
+      [[String(ticks.n), formatMs(ticks.p50), formatMs(ticks.p99), "(none set)"]],
+    ),
+  );
 }
 
 try {

@@ -55,6 +55,8 @@ export async function runScale(
 type Measured = Case & {
   index: Summary;
   buildMs: number;
+  /** The slowest of this query's warm-up calls (made before it is measured). */
+  coldMs: number;
   same: boolean;
   model: Summary;
   raw: Summary;
@@ -106,14 +108,17 @@ async function measureInProcess(file: string, runs: number, budgetMs: number, ca
     { label: "search, two terms (relay bracket)", kind: "search", query: "q=relay+bracket" },
   ];
   console.log(
-    `\nScale: ${guides} published guides; vehicle ${top.make}/${top.model}/${top.generation} (${top.powertrain}, ${top.guides} guides on its busiest variant); up to ${runs} runs (or ${budgetMs / 1000} s) each in a process of its own, after one unmeasured, each case ended after ${caseLimitMs / 1000} s\n`,
+    `\nScale: ${guides} published guides; vehicle ${top.make}/${top.model}/${top.generation} (${top.powertrain}, ${top.guides} guides on its busiest variant); up to ${runs} runs (or ${budgetMs / 1000} s) each in a process of its own, after the warm-up, each case ended after ${caseLimitMs / 1000} s\n`,
   );
 
   client.close();
   const measured: Measured[] = [];
   for (const c of cases) {
     process.stderr.write(`  ${c.label}…\n`);
-    measured.push({ ...c, ...(await measureCase({ file, query: c.query, runs, budgetMs }, caseLimitMs)) });
+    measured.push({
+      ...c,
+      ...(await measureCase({ file, query: c.query, runs, budgetMs, warmup: cases.map((other) => other.query) }, caseLimitMs)),
+    });
   }
 
   const rows = measured.map((m) => {
@@ -124,6 +129,7 @@ async function measureInProcess(file: string, runs: number, budgetMs: number, ca
       m.timedOut ? `> ${caseLimitMs / 1000} s` : String(m.index.n),
       formatMs(m.index.p50),
       formatMs(m.index.p99),
+      formatMs(m.coldMs),
       m.timedOut ? "?" : m.same ? "yes" : "NO",
       formatMs(m.model.p99),
       formatMs(m.raw.p50),
@@ -141,6 +147,7 @@ async function measureInProcess(file: string, runs: number, budgetMs: number, ca
         "n",
         "served p50",
         "served p99",
+        "warm-up max",
         "same as SQL",
         "SQL model p99",
         "raw SQL p50",
@@ -155,7 +162,7 @@ async function measureInProcess(file: string, runs: number, budgetMs: number, ca
   );
   const builds = measured.filter((m) => !m.timedOut).map((m) => m.buildMs);
   console.log(
-    `(milliseconds; served = the in-memory index, built once per content stamp in ${formatMs(Math.max(...builds))} ms at most on its first call, not counted; SQL model = listPublishedGuides; raw SQL = its statements replayed on the libSQL client, one after the other; n = runs measured, "> ${caseLimitMs / 1000} s" = ended unfinished)`,
+    `(milliseconds; served = the in-memory index, built once per content stamp in ${formatMs(Math.max(...builds))} ms at most on its first call, not counted; measured after every query above was answered 5 times (warm-up max: the slowest of this query's, while V8 still compiles); SQL model = listPublishedGuides; raw SQL = its statements replayed on the libSQL client, one after the other; n = runs measured, "> ${caseLimitMs / 1000} s" = ended unfinished)`,
   );
   return measured;
 }
@@ -166,7 +173,7 @@ const NOT_MEASURED: Summary = { n: 0, p50: Number.NaN, p99: Number.NaN, mean: Nu
 function measureCase(
   job: ScaleCaseJob,
   limitMs: number,
-): Promise<Pick<Measured, "index" | "buildMs" | "same" | "model" | "raw" | "statements" | "timedOut">> {
+): Promise<Pick<Measured, "index" | "buildMs" | "coldMs" | "same" | "model" | "raw" | "statements" | "timedOut">> {
   return new Promise((done, fail) => {
     const child = spawn(process.execPath, ["--import", "tsx", join(ROOT, "bench", "scale-case.ts"), JSON.stringify(job)], {
       cwd: ROOT,
@@ -188,6 +195,7 @@ function measureCase(
         done({
           index: NOT_MEASURED,
           buildMs: Number.NaN,
+          coldMs: Number.NaN,
           same: false,
           model: NOT_MEASURED,
           raw: NOT_MEASURED,

@@ -339,7 +339,8 @@ function VariantRow({ v, used, failure }: { v: Variant; used: number; failure: F
         ) : (
           <OneButton intent="retire-variant" id={v.id} label="Retire" formKey={key} />
         )}
-        <OneButton intent="delete-variant" id={v.id} label="Delete" tone="danger" formKey={key} />
+        {/* A variant in some guide's fitment can only be retired; the server refuses a delete too. */}
+        {used ? null : <OneButton intent="delete-variant" id={v.id} label="Delete" tone="danger" formKey={key} />}
       </div>
     </li>
   );

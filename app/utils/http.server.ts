@@ -60,13 +60,25 @@ export function matchesEtag(request: Request, etag: string): boolean {
   return header.split(",").some((tag) => opaque(tag) === opaque(etag));
 }
 
+// A body kept in a reader cache is the same object on every request (callers never change what a
+// cache gives them): its text and ETag are made once and live as long as the object does.
+const serializedBodies = new WeakMap<object, { text: string; etag: string }>();
+function serialized(body: object) {
+  let done = serializedBodies.get(body);
+  if (!done) {
+    const text = JSON.stringify(body);
+    done = { text, etag: `W/"${createHash("sha256").update(text).digest("base64url").slice(0, 32)}"` };
+    serializedBodies.set(body, done);
+  }
+  return done;
+}
+
 /**
  * A JSON answer the same for every reader, with an ETag of its bytes (weak: compression may change
  * them on the way) and PUBLIC_CACHE_CONTROL; a request that names the ETag gets 304 and no body.
  */
-export function publicJson(request: Request, body: unknown): Response {
-  const text = JSON.stringify(body);
-  const etag = `W/"${createHash("sha256").update(text).digest("base64url").slice(0, 32)}"`;
+export function publicJson(request: Request, body: object): Response {
+  const { text, etag } = serialized(body);
   const headers = { ETag: etag, "Cache-Control": PUBLIC_CACHE_CONTROL };
   if (matchesEtag(request, etag)) return new Response(null, { status: 304, headers });
   return new Response(text, { headers: { ...headers, "Content-Type": "application/json" } });

@@ -2,7 +2,7 @@ import { count, desc, eq } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { startAppServer } from "../support/app-server";
 import { useTestDatabase } from "../support/base-db";
-import { TestClient, plainText } from "../support/http-client";
+import { TestClient, plainText, signedIn } from "../support/http-client";
 
 // The audit log over HTTP, on a database of its own so that counts and pages are this file's:
 // the demo data's own history (written by the seed through the model functions), a role change
@@ -14,12 +14,6 @@ beforeAll(async () => {
   app = await startAppServer();
 });
 afterAll(async () => app?.stop());
-
-async function signedIn(email: string) {
-  const client = new TestClient(app.origin);
-  expect((await client.signIn(email, "torqueleaf-demo")).status).toBe(302);
-  return client;
-}
 
 async function db() {
   const { getDb } = await import("~/db/client.server");
@@ -53,13 +47,13 @@ describe("/admin/audit", () => {
       "/login?redirectTo=%2Fadmin%2Faudit",
     );
     for (const email of ["reader@torqueleaf.test", "author@torqueleaf.test", "editor@torqueleaf.test"]) {
-      expect((await (await signedIn(email)).get("/admin/audit")).status, email).toBe(403);
+      expect((await (await signedIn(app.origin, email)).get("/admin/audit")).status, email).toBe(403);
     }
-    expect((await (await signedIn("admin@torqueleaf.test")).get("/admin/audit")).status).toBe(200);
+    expect((await (await signedIn(app.origin, "admin@torqueleaf.test")).get("/admin/audit")).status).toBe(200);
   });
 
   it("shows a guide's review history in plain words, found by the guide", async () => {
-    const admin = await signedIn("admin@torqueleaf.test");
+    const admin = await signedIn(app.origin, "admin@torqueleaf.test");
     const { guide, user } = await ids();
     const lamps = await guide("kestrel-hood-auxiliary-lamps");
     const editor = await user("editor@torqueleaf.test");
@@ -79,7 +73,7 @@ describe("/admin/audit", () => {
   });
 
   it("shows role changes with who, when and why, and filters by actor and action", async () => {
-    const admin = await signedIn("admin@torqueleaf.test");
+    const admin = await signedIn(app.origin, "admin@torqueleaf.test");
     const { user } = await ids();
     const reader = await user("reader@torqueleaf.test");
     const adminUser = await user("admin@torqueleaf.test");
@@ -117,7 +111,7 @@ describe("/admin/audit", () => {
   });
 
   it("filters by dates (whole UTC days, both ends included) and pages newest first", async () => {
-    const admin = await signedIn("admin@torqueleaf.test");
+    const admin = await signedIn(app.origin, "admin@torqueleaf.test");
     const { auditLog } = await import("~/db/schema");
     const d = await db();
     const [{ n }] = await d.select({ n: count() }).from(auditLog);
@@ -150,7 +144,7 @@ describe("/admin/audit", () => {
   });
 
   it("answers filters that do not parse with 400 and a message naming each, never a server error", async () => {
-    const admin = await signedIn("admin@torqueleaf.test");
+    const admin = await signedIn(app.origin, "admin@torqueleaf.test");
     const cases: [string, string][] = [
       ["?actor=someone", "Who: pick a person from the list"],
       ["?action=DROP%20TABLE", "What: pick an action from the list"],
@@ -172,7 +166,7 @@ describe("/admin/audit", () => {
   });
 
   it("shows the guide's own history on its Workbench page", async () => {
-    const author = await signedIn("author@torqueleaf.test");
+    const author = await signedIn(app.origin, "author@torqueleaf.test");
     // The demo author's draft (the seed's seventh guide) and one of their published guides.
     const draft = plainText(await (await author.get("/workbench/guides/7")).text());
     expect(draft).toContain("History");

@@ -2,7 +2,7 @@ import { and, eq, like } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { startAppServer } from "../support/app-server";
 import { useTestDatabase } from "../support/base-db";
-import { expectFlash, TestClient, plainText } from "../support/http-client";
+import { expectFlash, TestClient, plainText, signedIn } from "../support/http-client";
 
 // The vehicle catalogue's administration over HTTP on a database of its own (the changes would
 // otherwise show in other files' Library counts), checked through the public catalogue, the
@@ -14,12 +14,6 @@ beforeAll(async () => {
   app = await startAppServer();
 });
 afterAll(async () => app?.stop());
-
-async function signedIn(email: string) {
-  const client = new TestClient(app.origin);
-  expect((await client.signIn(email, "torqueleaf-demo")).status).toBe(302);
-  return client;
-}
 
 type ApiVariant = { id: number; key: string; name: string; powertrain: string; batteryRunM: number; retired: boolean };
 type ApiCatalogue = {
@@ -79,13 +73,13 @@ describe("/admin/catalogue", () => {
     expect((await anonymous.get("/admin/catalogue")).headers.get("location")).toBe("/login?redirectTo=%2Fadmin%2Fcatalogue");
     expect((await anonymous.post("/admin/catalogue", { intent: "add-make", name: "Sneaky" })).status).toBe(302);
     for (const email of ["reader@torqueleaf.test", "author@torqueleaf.test", "editor@torqueleaf.test"]) {
-      const client = await signedIn(email);
+      const client = await signedIn(app.origin, email);
       expect((await client.get("/admin/catalogue")).status, email).toBe(403);
       expect((await client.post("/admin/catalogue", { intent: "add-make", name: "Sneaky" })).status, email).toBe(403);
     }
     const ids = await rowIds();
     expect(await ids.make("Sneaky")).toBeUndefined();
-    const admin = await signedIn("admin@torqueleaf.test");
+    const admin = await signedIn(app.origin, "admin@torqueleaf.test");
     const page = plainText(await (await admin.get("/admin/catalogue")).text());
     // The demo catalogue, every level: make, model, generation with its years, a variant with its figures.
     expect(page).toContain("Vehicle catalogue");
@@ -95,7 +89,7 @@ describe("/admin/catalogue", () => {
   });
 
   it("adds and edits each level, with messages that name the field and keep what was typed", async () => {
-    const admin = await signedIn("admin@torqueleaf.test");
+    const admin = await signedIn(app.origin, "admin@torqueleaf.test");
     const before = (await catalogueAudit()).length;
     const ids = await rowIds();
 
@@ -253,7 +247,7 @@ describe("/admin/catalogue", () => {
   });
 
   it("refuses to delete a variant a guide's fitment names (409, the guides named), and retires it instead", async () => {
-    const admin = await signedIn("admin@torqueleaf.test");
+    const admin = await signedIn(app.origin, "admin@torqueleaf.test");
     const ids = await rowIds();
     const f2 = await ids.variant("fjell-f2-gas-fwd");
     const { guides } = await import("~/db/schema");
@@ -291,7 +285,7 @@ describe("/admin/catalogue", () => {
     expect((await catalogueAudit()).length).toBe(before);
 
     // Before retiring: the Library offers the F2, and the author's editor offers its variant.
-    const author = await signedIn("author@torqueleaf.test");
+    const author = await signedIn(app.origin, "author@torqueleaf.test");
     const editorData = async () => (await author.get("/workbench/guides/7.data")).text();
     expect(await editorData()).toContain("fjell-f2-gas-fwd");
     const library = async () => (await new TestClient(app.origin).get("/")).text();
@@ -335,7 +329,7 @@ describe("/admin/catalogue", () => {
   });
 
   it("deletes unused variants, then the emptied generation, model and make, each audited", async () => {
-    const admin = await signedIn("admin@torqueleaf.test");
+    const admin = await signedIn(app.origin, "admin@torqueleaf.test");
     const ids = await rowIds();
     const make = await ids.make("Tarvo Motors");
     const model = await ids.model("Brisk");

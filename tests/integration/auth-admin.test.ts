@@ -2,7 +2,7 @@ import { and, eq } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { startAppServer } from "../support/app-server";
 import { useTestDatabase } from "../support/base-db";
-import { expectFlash, TestClient } from "../support/http-client";
+import { expectFlash, TestClient, signedIn } from "../support/http-client";
 
 let app: Awaited<ReturnType<typeof startAppServer>>;
 const DEMO_PASSWORD = "torqueleaf-demo";
@@ -12,12 +12,6 @@ beforeAll(async () => {
   app = await startAppServer();
 });
 afterAll(async () => app?.stop());
-
-async function signedIn(email: string, password = DEMO_PASSWORD) {
-  const client = new TestClient(app.origin);
-  expect((await client.signIn(email, password)).status).toBe(302);
-  return client;
-}
 
 async function userId(email: string) {
   const { getDb } = await import("~/db/client.server");
@@ -40,7 +34,7 @@ describe("admin → users", () => {
       "/login?redirectTo=%2Fadmin%2Fusers",
     );
     for (const email of ["reader@torqueleaf.test", "author@torqueleaf.test", "editor@torqueleaf.test"]) {
-      const client = await signedIn(email);
+      const client = await signedIn(app.origin, email);
       expect((await client.get("/admin/users")).status, email).toBe(403);
       expect(
         (await client.post("/admin/users", { intent: "disable", userId: "1", reason: "should not work" })).status,
@@ -60,7 +54,7 @@ describe("admin → users", () => {
         password: null,
       });
     }
-    const admin = await signedIn("admin@torqueleaf.test");
+    const admin = await signedIn(app.origin, "admin@torqueleaf.test");
     const search = await (await admin.get("/admin/users?q=solberg")).text();
     expect(search).toContain("Mina Solberg");
     expect(search).not.toContain("Rhea Castellane");
@@ -78,9 +72,9 @@ describe("admin → users", () => {
   });
 
   it("changes a role only with a reason, keeps what was typed otherwise, and audits who, what and why", async () => {
-    const admin = await signedIn("admin@torqueleaf.test");
+    const admin = await signedIn(app.origin, "admin@torqueleaf.test");
     const readerId = await userId("reader@torqueleaf.test");
-    const reader = await signedIn("reader@torqueleaf.test");
+    const reader = await signedIn(app.origin, "reader@torqueleaf.test");
 
     const missing = await admin.post("/admin/users", {
       intent: "set-role",
@@ -119,8 +113,8 @@ describe("admin → users", () => {
   });
 
   it("disables an account (refused on its very next request) and enables it again", async () => {
-    const admin = await signedIn("admin@torqueleaf.test");
-    const author = await signedIn("author2@torqueleaf.test");
+    const admin = await signedIn(app.origin, "admin@torqueleaf.test");
+    const author = await signedIn(app.origin, "author2@torqueleaf.test");
     const authorId = await userId("author2@torqueleaf.test");
     expect(await author.me()).not.toBeNull();
 

@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { startAppServer } from "../support/app-server";
 import { useTestDatabase } from "../support/base-db";
-import { TestClient, uniqueEmail } from "../support/http-client";
+import { TestClient, signedIn, uniqueEmail } from "../support/http-client";
 
 let app: Awaited<ReturnType<typeof startAppServer>>;
 const DEMO_PASSWORD = "torqueleaf-demo";
@@ -11,13 +11,6 @@ beforeAll(async () => {
   app = await startAppServer();
 });
 afterAll(async () => app?.stop());
-
-async function signedIn(email: string) {
-  const client = new TestClient(app.origin);
-  const response = await client.signIn(email, DEMO_PASSWORD);
-  expect(response.status).toBe(302);
-  return client;
-}
 
 const sessionCookieOf = (client: TestClient) => [...client.cookies].find(([name]) => name.endsWith("tl_session"))!;
 
@@ -35,7 +28,7 @@ describe("sessions", () => {
   });
 
   it("issues a new id at sign-in and ends a session planted beforehand (fixation)", async () => {
-    const attacker = await signedIn("reader@torqueleaf.test");
+    const attacker = await signedIn(app.origin, "reader@torqueleaf.test");
     const [name, planted] = sessionCookieOf(attacker);
     const victim = new TestClient(app.origin);
     victim.cookies.set(name, planted);
@@ -50,7 +43,7 @@ describe("sessions", () => {
   });
 
   it("revokes the session at sign-out, so a copied cookie stops working", async () => {
-    const client = await signedIn("author@torqueleaf.test");
+    const client = await signedIn(app.origin, "author@torqueleaf.test");
     const [name, value] = sessionCookieOf(client);
     const copy = new TestClient(app.origin);
     copy.cookies.set(name, value);
@@ -69,7 +62,7 @@ describe("sessions", () => {
   });
 
   it("treats a tampered cookie as no cookie and clears it", async () => {
-    const client = await signedIn("admin@torqueleaf.test");
+    const client = await signedIn(app.origin, "admin@torqueleaf.test");
     const [name, value] = sessionCookieOf(client);
     const forged = new TestClient(app.origin);
     const [payload, signature] = decodeURIComponent(value).split(".");
@@ -89,7 +82,7 @@ describe("cross-site protection", () => {
   const evil = "http://evil.example";
 
   it("refuses a page form posted from another origin with 403, and the action does not run", async () => {
-    const client = await signedIn("reader@torqueleaf.test");
+    const client = await signedIn(app.origin, "reader@torqueleaf.test");
     const response = await client.post("/logout", {}, { origin: evil });
     expect(response.status).toBe(403);
     expect(await response.text()).toContain("did not come from a Torqueleaf page");
@@ -218,7 +211,7 @@ describe("the guards that loaders and actions call", () => {
   it("answer the API with 401 and 403 in its error shape, and pages with sign-in or 403", async () => {
     const { requirePermission, requireUser } = await import("~/services/auth/guards.server");
     // The author (not the reader, whose sign-in budget the tests above used up).
-    const author = await signedIn("author@torqueleaf.test");
+    const author = await signedIn(app.origin, "author@torqueleaf.test");
     const cookie = author.cookieHeader();
     const thrown = async (fn: () => Promise<unknown>) => {
       try {

@@ -1,4 +1,6 @@
-import { TestClient } from "../support/http-client";
+import { type TestClient, signedIn } from "../support/http-client";
+
+export { signedIn };
 
 /** Calls to the authoring API the way the editor makes them: JSON in, JSON out, our Origin on writes. */
 export type Answer<T = Record<string, unknown>> = { status: number; body: T };
@@ -21,13 +23,6 @@ export async function sendJson<T = Record<string, unknown>>(
     // not JSON: keep the text for the assertion message
   }
   return { status: response.status, body: parsed as T };
-}
-
-export async function signedIn(origin: string, email: string): Promise<TestClient> {
-  const client = new TestClient(origin);
-  const response = await client.signIn(email, "torqueleaf-demo");
-  if (response.status !== 302) throw new Error(`could not sign in ${email}: ${response.status}`);
-  return client;
 }
 
 export type ApiError = {

@@ -182,21 +182,30 @@ describe("npm start", () => {
 });
 
 describe("the production server's body limit", () => {
-  it("answers a 30 MB form with 413 within a second while serving others", async () => {
+  it("answers a 30 MB form with 413 while serving others", async () => {
     const app = await start({ ...sharedServices(), LOCAL_FAKES: "0", DEMO_DATA: "0" }, { database: "demo" });
-    const body = "a=&".repeat(10_000_000);
-    const began = Date.now();
+    const origin = `http://localhost:${app.port}`;
+    const headers = { "content-type": "application/x-www-form-urlencoded", origin };
     const [big, other] = await Promise.all([
-      fetch(`${app.url}/login`, {
-        method: "POST",
-        headers: { "content-type": "application/x-www-form-urlencoded", origin: `http://localhost:${app.port}` },
-        body,
-      }),
+      fetch(`${app.url}/login`, { method: "POST", headers, body: "a=&".repeat(10_000_000) }),
       new Promise((r) => setTimeout(r, 50)).then(() => fetch(`${app.url}/api/guides`)),
     ]);
     expect(big.status).toBe(413);
     expect(await big.text()).toMatch(/larger than 256 KB/);
     expect(other.status).toBe(200);
-    expect(Date.now() - began).toBeLessThan(1000);
+
+    // Without a declared length the server counts the bytes as they come and answers once they pass
+    // the limit: this body sends 300 KB and then never ends, so only an early answer can arrive.
+    let pulls = 0;
+    const endless = new ReadableStream<Uint8Array>({
+      pull(controller) {
+        if (pulls++ > 0) return new Promise<void>(() => {});
+        controller.enqueue(new TextEncoder().encode(`a=${"x".repeat(300_000)}`));
+      },
+    });
+    const refused = await fetch(`${app.url}/login`, { method: "POST", headers, body: endless, duplex: "half" } as RequestInit);
+    expect(refused.status).toBe(413);
+    expect(await refused.text()).toMatch(/larger than 256 KB/);
+    await endless.cancel().catch(() => {});
   });
 });

@@ -132,3 +132,11 @@ export const plainText = (html: string) =>
     .replace(/&quot;/g, '"')
     .replace(/&amp;/g, "&")
     .replace(/\s+/g, " ");
+
+/** A client signed in with the given account (a demo account's password by default). */
+export async function signedIn(origin: string, email: string, password = "torqueleaf-demo"): Promise<TestClient> {
+  const client = new TestClient(origin);
+  const response = await client.signIn(email, password);
+  if (response.status !== 302) throw new Error(`could not sign in ${email}: ${response.status}`);
+  return client;
+}
