@@ -185,3 +185,50 @@ it("serves the web app manifest with its type and PNG icons a phone can install"
   expect(worker.status).toBe(200);
   expect(worker.headers.get("content-type")).toMatch(/javascript/);
 });
+
+it("checklist item ticks made without signal are queued and the server has both once the signal returns", async () => {
+  const browser = await launchBrowser({ viewport: { width: 360, height: 780 } });
+  context = browser;
+  const { page, errors } = await openPage(browser);
+  await signIn(page, "reader@torqueleaf.test");
+  // A parts checklist copied from the guide (POST /api/checklists, design/api.md).
+  const created = await browser.request.post(`${origin}/api/checklists`, { headers: { origin }, data: { guideSlug: SLUG } });
+  expect(created.status()).toBe(201);
+  const { id } = (await created.json()) as { id: number };
+  const read = async () =>
+    ((await (await browser.request.get(`${origin}/api/checklists/${id}`)).json()) as { items: { id: number; checked: boolean }[] })
+      .items;
+  const [first, second] = await read();
+  expect(first.checked || second.checked).toBe(false);
+
+  await page.goto(GUIDE);
+  await settle(page);
+  await controlled(page);
+  await browser.setOffline(true);
+  // The page's own requests, as a checklist screen makes them: PATCH { checked } per item.
+  const answers = await page.evaluate(
+    async ({ id, items }) => {
+      const statuses: string[] = [];
+      for (const itemId of items) {
+        const response = await fetch(`/api/checklists/${id}/items/${itemId}`, {
+          method: "PATCH",
+          headers: { "content-type": "application/json" },
+          body: JSON.stringify({ checked: true }),
+        });
+        statuses.push(`${response.status} ${response.headers.get("X-Torqueleaf-Queued")}`);
+      }
+      return statuses;
+    },
+    { id, items: [first.id, second.id] },
+  );
+  expect(answers).toEqual(["202 1", "202 1"]);
+  // The queue lives in the worker's IndexedDB: it survives a reload (here: of the kept-less page, so only once online).
+  await browser.setOffline(false);
+  await page.reload();
+  await settle(page);
+  await expect
+    .poll(async () => (await read()).filter((item) => item.checked).map((item) => item.id), { timeout: 20_000 })
+    .toEqual([first.id, second.id]);
+  await browser.request.delete(`${origin}/api/checklists/${id}`, { headers: { origin } });
+  expect(errors.filter((e) => !/Failed to load resource|ERR_INTERNET_DISCONNECTED/.test(e))).toEqual([]);
+});
