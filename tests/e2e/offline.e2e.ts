@@ -196,8 +196,11 @@ it("checklist item ticks made without signal are queued and the server has both 
   expect(created.status()).toBe(201);
   const { id } = (await created.json()) as { id: number };
   const read = async () =>
-    ((await (await browser.request.get(`${origin}/api/checklists/${id}`)).json()) as { items: { id: number; checked: boolean }[] })
-      .items;
+    (
+      (await (await browser.request.get(`${origin}/api/checklists/${id}`)).json()) as {
+        items: { id: number; checked: boolean }[];
+      }
+    ).items;
   const [first, second] = await read();
   expect(first.checked || second.checked).toBe(false);
 
