@@ -24,6 +24,16 @@ function loadedAssets(): string[] {
   return [...urls];
 }
 
+/** React Router's route discovery requests this page made (`/__manifest?paths=…`): offline it asks for the same. */
+function discoveryRequests(): string[] {
+  return performance
+    .getEntriesByType("resource")
+    .map((entry) => new URL(entry.name))
+    .filter((url) => url.origin === window.location.origin && url.pathname === "/__manifest")
+    .map((url) => `${url.pathname}${url.search}`)
+    .slice(-50);
+}
+
 function buildId(): string {
   const version = (window as { __reactRouterManifest?: { version?: string } }).__reactRouterManifest?.version;
   return version && /^[\w-]{1,64}$/.test(version) ? version : "current";
@@ -52,6 +62,7 @@ export function KeepOnDevice({ guide }: { guide: Pick<ShownGuide, "slug" | "step
       photos: photos.filter(Boolean),
       assets: loadedAssets(),
       build: buildId(),
+      discovery: discoveryRequests(),
     });
     if (!reply) {
       setState({

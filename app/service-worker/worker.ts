@@ -136,6 +136,20 @@ async function keptAssetOrNetwork(request: Request): Promise<Response> {
   return fetch(request);
 }
 
+/** The network first; without it, a kept copy (React Router's route discovery for a kept page). */
+async function networkThenKeptAsset(request: Request): Promise<Response> {
+  try {
+    return await fetch(request);
+  } catch (error) {
+    for (const name of await caches.keys()) {
+      if (!name.startsWith(ASSETS_CACHE_PREFIX)) continue;
+      const kept = await (await caches.open(name)).match(request.url);
+      if (kept) return kept;
+    }
+    throw error;
+  }
+}
+
 const sameOrigin = (url: string) => new URL(url, sw.location.origin).origin === sw.location.origin;
 
 async function fetchOk(url: string, init?: RequestInit): Promise<Response> {
@@ -144,7 +158,7 @@ async function fetchOk(url: string, init?: RequestInit): Promise<Response> {
   return response;
 }
 
-async function keep(reader: ReaderId, page: string, photos: string[], assets: string[], build: string) {
+async function keep(reader: ReaderId, page: string, photos: string[], assets: string[], build: string, discovery: string[]) {
   await setReader(reader);
   const [html, data] = await Promise.all([fetchOk(page), fetchOk(`${page}.data`)]);
   const pages = await caches.open(pagesCacheName(reader));
@@ -158,6 +172,8 @@ async function keep(reader: ReaderId, page: string, photos: string[], assets: st
   );
   const assetCache = await caches.open(`${ASSETS_CACHE_PREFIX}${build}`);
   await Promise.all(assets.filter(sameOrigin).map(async (url) => assetCache.put(url, await fetchOk(url, { cache: "default" }))));
+  // The route discovery answers the page asked for (public: they describe the app's routes, not the reader).
+  await Promise.all(discovery.map(async (url) => assetCache.put(url, await fetchOk(url))));
 }
 
 const address = string().check(maxLength(2000));
@@ -170,6 +186,7 @@ const messageSchema = discriminatedUnion("type", [
     photos: array(address).check(maxLength(500)),
     assets: array(string().check(maxLength(2000), regex(/^\/[\w./-]+$/))).check(maxLength(500)),
     build: string().check(regex(/^[\w-]{1,64}$/)),
+    discovery: array(string().check(maxLength(2000), regex(/^\/__manifest\?[\w%.,=&-]+$/))).check(maxLength(50)),
   }),
   object({ type: literal("is-kept"), reader: readerSchema, page: address }),
   object({ type: literal("replay"), reader: readerSchema }),
@@ -184,7 +201,7 @@ async function answer(data: unknown): Promise<OfflineReply> {
       await setReader(message.reader);
       return { ok: true };
     case "keep":
-      await keep(message.reader, message.page, message.photos, message.assets, message.build);
+      await keep(message.reader, message.page, message.photos, message.assets, message.build, message.discovery);
       return { ok: true, kept: true };
     case "is-kept": {
       const same = (await storedReader()) === message.reader;
@@ -215,6 +232,10 @@ sw.addEventListener("fetch", (event) => {
       return;
     }
     if (request.method !== "GET") return;
+    if (url.pathname === "/__manifest") {
+      event.respondWith(networkThenKeptAsset(request));
+      return;
+    }
     if (url.pathname.startsWith("/assets/")) {
       event.respondWith(keptAssetOrNetwork(request));
       return;

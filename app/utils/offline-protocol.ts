@@ -9,8 +9,11 @@ export type ReaderId = number | null;
 export type OfflineMessage =
   /** Sent on every page load: the worker keeps pages per reader and drops a reader's when another signs in or out. */
   | { type: "reader"; reader: ReaderId }
-  /** Keep a page, its React Router data and these photos, and the app's assets, for this reader. */
-  | { type: "keep"; reader: ReaderId; page: string; photos: string[] }
+  /**
+   * Keep a page, its React Router data and these photos for this reader, and the app's assets and
+   * route discovery answers the page loaded (for everyone: they are the same for all), under the build's id.
+   */
+  | { type: "keep"; reader: ReaderId; page: string; photos: string[]; assets: string[]; build: string; discovery: string[] }
   /** Whether this reader has kept the page. */
   | { type: "is-kept"; reader: ReaderId; page: string }
   /** Send the queued changes now (the page saw the signal come back, or just loaded). */
