@@ -214,6 +214,8 @@ it("checklist item ticks made without signal are queued and the server has both 
   await page.goto(GUIDE);
   await settle(page);
   await controlled(page);
+  await page.getByRole("button", { name: "Keep on this device", exact: true }).click();
+  await page.getByText("Kept on this device: it opens here without signal.").waitFor();
   await browser.setOffline(true);
   // The page's own requests, as a checklist screen makes them: PATCH { checked } per item.
   const answers = await page.evaluate(
@@ -232,10 +234,11 @@ it("checklist item ticks made without signal are queued and the server has both 
     { id, items: [first.id, second.id] },
   );
   expect(answers).toEqual(["202 1", "202 1"]);
-  // The queue lives in the worker's IndexedDB: it survives a reload (here: of the kept-less page, so only once online).
-  await browser.setOffline(false);
+  // The queue lives in the worker's IndexedDB: it survives a reload without signal, and nothing has reached the server yet.
   await page.reload();
   await settle(page);
+  expect((await read()).filter((item) => item.checked)).toEqual([]);
+  await browser.setOffline(false);
   await expect
     .poll(async () => (await read()).filter((item) => item.checked).map((item) => item.id), { timeout: 20_000 })
     .toEqual([first.id, second.id]);
