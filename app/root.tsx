@@ -6,6 +6,7 @@ import "./app.css";
 import { SiteFooter, SiteHeader } from "./components/chrome";
 import { ErrorPage } from "./components/error-page";
 import { FlashBanner } from "./components/form";
+import { OfflineSupport } from "./components/offline-support";
 import { crossSiteMiddleware } from "./services/auth/guards.server";
 import { getUser, sessionMiddleware } from "./services/auth/session.server";
 import { refusalShapeMiddleware, requestShapeMiddleware } from "./services/http/request-shape.server";
@@ -15,7 +16,12 @@ import { takeFlash } from "./utils/forms.server";
 import { permissionsFor } from "./utils/permissions";
 import type { RootData } from "./utils/root-data";
 
-export const links: Route.LinksFunction = () => [{ rel: "icon", href: "/favicon.svg", type: "image/svg+xml" }];
+export const links: Route.LinksFunction = () => [
+  { rel: "icon", href: "/favicon.svg", type: "image/svg+xml" },
+  // The installable app (public/manifest.webmanifest; PNG icons drawn at build time by app/cli/build-offline.ts).
+  { rel: "manifest", href: "/manifest.webmanifest" },
+  { rel: "apple-touch-icon", href: "/icons/icon-192.png" },
+];
 
 /**
  * Runs before every loader and action of every route, resource routes and /api included: give the
@@ -77,6 +83,7 @@ export default function App({ loaderData }: Route.ComponentProps) {
         <Outlet />
       </main>
       <SiteFooter />
+      <OfflineSupport reader={loaderData.user?.id ?? null} />
     </>
   );
 }

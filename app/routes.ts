@@ -9,6 +9,8 @@ export default [
   route("api/catalogue", "routes/api.catalogue.ts"),
   route("api/guides", "routes/api.guides.ts"),
   route("api/guides/:slug", "routes/api.guide.ts"),
+  // Work-through mode: the signed-in reader's own "step done" ticks.
+  route("api/guides/:slug/step-ticks", "routes/api.step-ticks.ts"),
   // Authoring: a guide by its id, for its author and the editors.
   route("api/guides/import", "routes/api.guides-import.ts"),
   route("api/guides/:id/draft", "routes/api.guide-draft.ts"),

@@ -1,4 +1,4 @@
-import { useRef } from "react";
+import { type ReactNode, useRef } from "react";
 import { Link } from "react-router";
 import { CalloutView } from "~/components/callouts";
 import { SafetyNotice } from "~/components/chrome";
@@ -62,7 +62,18 @@ const jumpLink =
  * A guide as readers see it: the published guide page, and the author's preview of a draft, which
  * must look exactly the same.
  */
-export function GuideArticle({ guide, url, print }: { guide: ShownGuide; url: string; print: boolean }) {
+export function GuideArticle({
+  guide,
+  url,
+  print,
+  work,
+}: {
+  guide: ShownGuide;
+  url: string;
+  print: boolean;
+  /** The published page's work-through controls (app/routes/guide.tsx); a draft's preview has none. */
+  work?: { headerActions: ReactNode; beforeSteps: ReactNode; afterStep: (index: number) => ReactNode };
+}) {
   const article = useRef<HTMLElement>(null);
   useDetailsOpenForPrint(article, print);
   useScrollableFiguresFocusable(article);
@@ -125,13 +136,14 @@ export function GuideArticle({ guide, url, print }: { guide: ShownGuide; url: st
           </div>
         </dl>
         {print ? null : (
-          <p className="no-print mt-4 flex gap-3 text-sm">
+          <p className="no-print mt-4 flex flex-wrap gap-3 text-sm">
             <Link
               to={`/guides/${guide.slug}?print=1`}
               className="inline-flex min-h-11 items-center rounded-md border border-rule bg-white px-4 font-medium hover:bg-paper-deep"
             >
               Print view
             </Link>
+            {work?.headerActions}
           </p>
         )}
       </header>
@@ -161,6 +173,7 @@ export function GuideArticle({ guide, url, print }: { guide: ShownGuide; url: st
           <h2 id="steps" className="sr-only scroll-mt-4">
             Steps
           </h2>
+          {work?.beforeSteps}
           <ol className="space-y-12">
             {guide.steps.map((step, index) => (
               <li key={step.title + index} id={`step-${index + 1}`} className="scroll-mt-6">
@@ -197,6 +210,7 @@ export function GuideArticle({ guide, url, print }: { guide: ShownGuide; url: st
                     ))}
                   </div>
                 ) : null}
+                {work?.afterStep(index)}
               </li>
             ))}
           </ol>

@@ -1,6 +1,8 @@
 import { FitmentReports } from "~/components/fitment-reports";
 import { GuideArticle, type ShownGuide, stepBodyId } from "~/components/guide-article";
+import { KeepOnDevice } from "~/components/keep-on-device";
 import { GuideVehicleLine } from "~/components/vehicle-fitment-line";
+import { StepDoneTick, WorkThroughProgress, WorkThroughProvider } from "~/components/work-through";
 import { getDb } from "~/db/client.server";
 import { getPublishedGuide, type PublishedGuide } from "~/models/library.server";
 import { unpublishedGuide } from "~/models/review-desk.server";
@@ -14,6 +16,7 @@ import { AppError, notFound } from "~/utils/errors";
 import { formatDate } from "~/utils/format";
 import { pageErrorResponse } from "~/utils/http.server";
 import { READER_PAGE } from "~/utils/reader-page";
+import { CATEGORY_LABELS, type Category } from "~/utils/vocab";
 import type { Route } from "./+types/guide";
 import { guideGarage } from "./guide-garage.server";
 
@@ -124,6 +127,7 @@ export const meta: Route.MetaFunction = ({ data }) => {
   if (!data) return [{ title: "Guide not found · Torqueleaf" }];
   const { url, image } = data;
   const guide = readGuide(data.guide);
+  const revisionPublished = guide.history?.find((h) => h.number === guide.revision.number)?.publishedAt ?? null;
   return [
     { title: `${guide.title} · Torqueleaf` },
     { name: "description", content: guide.summary },
@@ -134,9 +138,14 @@ export const meta: Route.MetaFunction = ({ data }) => {
     { property: "og:title", content: guide.title },
     { property: "og:description", content: guide.summary },
     { property: "og:url", content: url },
+    // The article's own properties (ogp.me, "article" type): when it came out, when this revision did, its section.
+    ...(guide.publishedAt ? [{ property: "article:published_time", content: guide.publishedAt.toISOString() }] : []),
+    ...(revisionPublished ? [{ property: "article:modified_time", content: revisionPublished.toISOString() }] : []),
+    { property: "article:section", content: CATEGORY_LABELS[guide.category as Category] },
     ...(image
       ? [
           { property: "og:image", content: image.url },
+          { property: "og:image:type", content: "image/jpeg" },
           { property: "og:image:width", content: String(image.width) },
           { property: "og:image:height", content: String(image.height) },
           { property: "og:image:alt", content: image.alt },
@@ -148,12 +157,19 @@ export const meta: Route.MetaFunction = ({ data }) => {
 export default function GuidePage({ loaderData }: Route.ComponentProps) {
   const { url, print, garage } = loaderData;
   const guide = readGuide(loaderData.guide);
+  const work = print
+    ? undefined
+    : {
+        headerActions: <KeepOnDevice guide={guide} />,
+        beforeSteps: <WorkThroughProgress />,
+        afterStep: (index: number) => <StepDoneTick index={index} />,
+      };
   return (
-    <>
+    <WorkThroughProvider slug={guide.slug} revision={guide.revision.number} stepCount={guide.steps.length}>
       {print ? null : <GuideVehicleLine garage={garage} fitment={guide.fitment} slug={guide.slug} />}
-      <GuideArticle guide={guide} url={url} print={print} />
+      <GuideArticle guide={guide} url={url} print={print} work={work} />
       {print ? null : <FitmentReports garage={garage} slug={guide.slug} />}
-    </>
+    </WorkThroughProvider>
   );
 }
 

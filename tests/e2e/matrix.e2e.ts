@@ -60,6 +60,12 @@ const MATRIX: Record<string, Probe[]> = {
     { path: `/api/guides/${fixtures.publishedSlug}`, expect: all(200) },
     { path: `/api/guides/${fixtures.unpublishedSlug}`, expect: all(404) },
   ],
+  // Every signed-in reader has ticks of their own (the session picks whose); an empty tick is refused by field.
+  "/api/guides/:slug/step-ticks": [
+    { path: `/api/guides/${fixtures.publishedSlug}/step-ticks`, expect: signedIn(200, 401) },
+    { method: "PUT", path: `/api/guides/${fixtures.publishedSlug}/step-ticks`, json: {}, expect: signedIn(400, 401) },
+    { path: `/api/guides/${fixtures.unpublishedSlug}/step-ticks`, expect: signedIn(404, 401) },
+  ],
   // Only the draft's author writes it; editors and admins read it for review.
   "/api/guides/:id/draft": [
     { path: guidePath("draft"), expect: { ...only(["editor", "admin"], 200, 403, 401), authorOwn: 200 } },

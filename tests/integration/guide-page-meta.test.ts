@@ -72,6 +72,18 @@ describe("a guide page's canonical link and Open Graph tags", () => {
     expect(photo.headers.get("content-type")).toMatch(/^image\/jpeg/);
   });
 
+  it("dates the article and names its section and the image's type (ogp.me: article:*, og:image:type)", async () => {
+    const head = await page(`/guides/${SLUG}`);
+    expect(head.meta.get("og:image:type")).toEqual(["image/jpeg"]);
+    const [published] = head.meta.get("article:published_time") ?? [];
+    const [modified] = head.meta.get("article:modified_time") ?? [];
+    // ISO 8601 date-times, as the Open Graph protocol's DateTime type asks.
+    for (const value of [published, modified]) expect(value).toMatch(/^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}:\d{2}(\.\d+)?Z$/);
+    expect(Date.parse(modified)).toBeGreaterThanOrEqual(Date.parse(published));
+    // The demo guide is in the lighting category (content-samples/guides/kestrel-hood-auxiliary-lamps.ts).
+    expect(head.meta.get("article:section")).toEqual(["Lighting"]);
+  });
+
   it("names the guide page, not the print view, as canonical on the print view", async () => {
     const head = await page(`/guides/${SLUG}?print=1`);
     expect(head.links.filter((l) => l.rel === "canonical").map((l) => l.href)).toEqual([`${origin}/guides/${SLUG}`]);

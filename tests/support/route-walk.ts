@@ -47,6 +47,7 @@ export const ROUTE_PATHS: Record<string, (photo: string) => string[]> = {
   "/api/catalogue": () => ["/api/catalogue"],
   "/api/guides": () => ["/api/guides"],
   "/api/guides/:slug": () => [`/api/guides/${fixtures.publishedSlug}`],
+  "/api/guides/:slug/step-ticks": () => [`/api/guides/${fixtures.publishedSlug}/step-ticks`],
   "/api/circuit": () => ["/api/circuit"],
   "/api/media": () => ["/api/media"],
   "/api/guides/import": () => ["/api/guides/import"],

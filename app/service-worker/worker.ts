@@ -1,0 +1,266 @@
+/// <reference lib="webworker" />
+import { BackgroundSyncQueue } from "serwist";
+// zod's tree-shakable build: the worker is fetched by every visitor's browser.
+import { array, discriminatedUnion, int, literal, maxLength, nullable, object, positive, regex, string } from "zod/mini";
+import {
+  ASSETS_CACHE_PREFIX,
+  KEEPABLE_PAGE,
+  type OfflineReply,
+  PHOTOS_CACHE,
+  pagesCacheName,
+  QUEUED_CHANGES,
+  QUEUED_HEADER,
+  type ReaderId,
+} from "../utils/offline-protocol";
+
+/**
+ * The service worker: keeps the guides a reader asked to keep (page, React Router data, photos at
+ * one width, the app's assets) and queues their ticks made without signal. Bundled by
+ * app/cli/build-offline.ts into build/client/sw.js, so it is served from the root with scope "/".
+ *
+ * What it never does: keep anything the reader did not ask to keep, answer from a cache while the
+ * network answers, or hand one reader's pages or queued changes to another. Pages are kept per
+ * reader (the page tells the worker who is signed in on every load); when that changes, the
+ * previous reader's pages are deleted and their queued changes are dropped, never sent with the
+ * next reader's session.
+ */
+
+const sw = self as unknown as ServiceWorkerGlobalScope;
+/** Set by the build: the build's id, so each deploy installs a new worker. */
+declare const __TL_BUILD__: string;
+
+const readerSchema = nullable(int().check(positive()));
+
+const META_CACHE = "tl-meta";
+const READER_KEY = "/__offline/reader";
+const QUEUE_NAME = "tl-changes";
+
+async function storedReader(): Promise<ReaderId> {
+  const kept = await (await caches.open(META_CACHE)).match(READER_KEY);
+  if (!kept) return null;
+  const parsed = object({ reader: readerSchema }).safeParse(await kept.json());
+  return parsed.success ? parsed.data.reader : null;
+}
+
+/** Records who is signed in; a different reader than before drops the previous one's kept pages. */
+async function setReader(reader: ReaderId): Promise<void> {
+  const previous = await storedReader();
+  if (previous === reader) return;
+  if (previous !== null) await caches.delete(pagesCacheName(previous));
+  await (await caches.open(META_CACHE)).put(READER_KEY, Response.json({ reader }));
+}
+
+const queue = new BackgroundSyncQueue(QUEUE_NAME, {
+  // A week: a guide is rarely worked through over a longer stretch without any signal.
+  maxRetentionTime: 7 * 24 * 60,
+  onSync: async () => {
+    await replay();
+  },
+});
+
+let replaying: Promise<number> | null = null;
+
+/**
+ * Sends the queued changes in the order they were made. Any answer from the server ends an entry
+ * (a 409 for a stale revision or a 404 for a removed checklist item cannot succeed later); a
+ * network failure puts it back and stops. Changes queued by another reader are dropped.
+ */
+function replay(): Promise<number> {
+  replaying ??= (async () => {
+    const reader = await storedReader();
+    let sent = 0;
+    for (let entry = await queue.shiftRequest(); entry; entry = await queue.shiftRequest()) {
+      if ((entry.metadata as { reader?: ReaderId } | undefined)?.reader !== reader) continue;
+      try {
+        await fetch(entry.request.clone());
+        sent += 1;
+      } catch {
+        await queue.unshiftRequest(entry);
+        break;
+      }
+    }
+    return sent;
+  })().finally(() => {
+    replaying = null;
+  });
+  return replaying;
+}
+
+async function sendOrQueue(request: Request): Promise<Response> {
+  const copy = request.clone();
+  try {
+    return await fetch(request);
+  } catch {
+    await queue.pushRequest({ request: copy, metadata: { reader: await storedReader() } });
+    return Response.json({ queued: true }, { status: 202, headers: { [QUEUED_HEADER]: "1", "Cache-Control": "no-store" } });
+  }
+}
+
+/** The network first; without it, what this reader kept at that address. */
+async function networkThenKept(request: Request, key: string): Promise<Response> {
+  try {
+    return await fetch(request);
+  } catch (error) {
+    const kept = await (await caches.open(pagesCacheName(await storedReader()))).match(key);
+    if (kept) return kept;
+    throw error;
+  }
+}
+
+/** The photo's folder: its variants differ only by the file name (`…/<width>.<format>`). */
+const photoFolder = (url: string) => url.slice(0, url.lastIndexOf("/") + 1);
+
+/** The network first; without it, the kept variant of the same photo, whatever width the page asked for. */
+async function networkThenKeptPhoto(request: Request): Promise<Response> {
+  try {
+    return await fetch(request);
+  } catch (error) {
+    const cache = await caches.open(PHOTOS_CACHE);
+    const exact = await cache.match(request.url);
+    if (exact) return exact;
+    const folder = photoFolder(request.url);
+    const sibling = (await cache.keys()).find((key) => photoFolder(key.url) === folder);
+    const kept = sibling ? await cache.match(sibling) : undefined;
+    if (kept) return kept;
+    throw error;
+  }
+}
+
+/** Assets have content-hashed names: a kept copy is the same file. Served from the cache only if kept. */
+async function keptAssetOrNetwork(request: Request): Promise<Response> {
+  for (const name of await caches.keys()) {
+    if (!name.startsWith(ASSETS_CACHE_PREFIX)) continue;
+    const kept = await (await caches.open(name)).match(request.url);
+    if (kept) return kept;
+  }
+  return fetch(request);
+}
+
+/** The network first; without it, a kept copy (React Router's route discovery for a kept page). */
+async function networkThenKeptAsset(request: Request): Promise<Response> {
+  try {
+    return await fetch(request);
+  } catch (error) {
+    for (const name of await caches.keys()) {
+      if (!name.startsWith(ASSETS_CACHE_PREFIX)) continue;
+      const kept = await (await caches.open(name)).match(request.url);
+      if (kept) return kept;
+    }
+    throw error;
+  }
+}
+
+const sameOrigin = (url: string) => new URL(url, sw.location.origin).origin === sw.location.origin;
+
+async function fetchOk(url: string, init?: RequestInit): Promise<Response> {
+  const response = await fetch(url, { credentials: "same-origin", cache: "no-store", ...init });
+  if (!response.ok) throw new Error(`${url} answered ${response.status}`);
+  return response;
+}
+
+async function keep(reader: ReaderId, page: string, photos: string[], assets: string[], build: string, discovery: string[]) {
+  await setReader(reader);
+  const [html, data] = await Promise.all([fetchOk(page), fetchOk(`${page}.data`)]);
+  const pages = await caches.open(pagesCacheName(reader));
+  await Promise.all([pages.put(page, html), pages.put(`${page}.data`, data)]);
+  const photoCache = await caches.open(PHOTOS_CACHE);
+  await Promise.all(
+    photos.map(async (url) => {
+      const response = await fetch(url, sameOrigin(url) ? { cache: "no-store" } : { mode: "no-cors" });
+      if (response.ok || response.type === "opaque") await photoCache.put(url, response);
+    }),
+  );
+  const assetCache = await caches.open(`${ASSETS_CACHE_PREFIX}${build}`);
+  await Promise.all(assets.filter(sameOrigin).map(async (url) => assetCache.put(url, await fetchOk(url, { cache: "default" }))));
+  // The route discovery answers the page asked for (public: they describe the app's routes, not the reader).
+  await Promise.all(discovery.map(async (url) => assetCache.put(url, await fetchOk(url))));
+}
+
+const address = string().check(maxLength(2000));
+const messageSchema = discriminatedUnion("type", [
+  object({ type: literal("reader"), reader: readerSchema }),
+  object({
+    type: literal("keep"),
+    reader: readerSchema,
+    page: string().check(maxLength(2000), regex(KEEPABLE_PAGE)),
+    photos: array(address).check(maxLength(500)),
+    assets: array(string().check(maxLength(2000), regex(/^\/[\w./-]+$/))).check(maxLength(500)),
+    build: string().check(regex(/^[\w-]{1,64}$/)),
+    discovery: array(string().check(maxLength(2000), regex(/^\/__manifest\?[\w%.,=&-]+$/))).check(maxLength(50)),
+  }),
+  object({ type: literal("is-kept"), reader: readerSchema, page: address }),
+  object({ type: literal("replay"), reader: readerSchema }),
+]);
+
+async function answer(data: unknown): Promise<OfflineReply> {
+  const parsed = messageSchema.safeParse(data);
+  if (!parsed.success) return { ok: false, message: "The worker did not understand the page's message." };
+  const message = parsed.data;
+  switch (message.type) {
+    case "reader":
+      await setReader(message.reader);
+      return { ok: true };
+    case "keep":
+      await keep(message.reader, message.page, message.photos, message.assets, message.build, message.discovery);
+      return { ok: true, kept: true };
+    case "is-kept": {
+      const same = (await storedReader()) === message.reader;
+      return { ok: true, kept: same && Boolean(await (await caches.open(pagesCacheName(message.reader))).match(message.page)) };
+    }
+    case "replay":
+      await setReader(message.reader);
+      return { ok: true, replayed: await replay() };
+  }
+}
+
+sw.addEventListener("message", (event) => {
+  const port = event.ports[0];
+  event.waitUntil(
+    answer(event.data).then(
+      (reply) => port?.postMessage(reply),
+      (error: unknown) => port?.postMessage({ ok: false, message: error instanceof Error ? error.message : String(error) }),
+    ),
+  );
+});
+
+sw.addEventListener("fetch", (event) => {
+  const request = event.request;
+  const url = new URL(request.url);
+  if (url.origin === sw.location.origin) {
+    if (QUEUED_CHANGES.some((change) => change.method === request.method && change.path.test(url.pathname))) {
+      event.respondWith(sendOrQueue(request));
+      return;
+    }
+    if (request.method !== "GET") return;
+    if (url.pathname === "/__manifest") {
+      event.respondWith(networkThenKeptAsset(request));
+      return;
+    }
+    if (url.pathname.startsWith("/assets/")) {
+      event.respondWith(keptAssetOrNetwork(request));
+      return;
+    }
+    // A kept page is the guide as it reads without a query (not its print view); its data whatever the query.
+    if (request.mode === "navigate" && url.search === "" && KEEPABLE_PAGE.test(url.pathname)) {
+      event.respondWith(networkThenKept(request, url.pathname));
+      return;
+    }
+    if (url.pathname.endsWith(".data") && KEEPABLE_PAGE.test(url.pathname.slice(0, -".data".length))) {
+      event.respondWith(networkThenKept(request, url.pathname));
+      return;
+    }
+  }
+  if (request.method === "GET" && request.destination === "image") event.respondWith(networkThenKeptPhoto(request));
+});
+
+sw.addEventListener("install", () => {
+  void sw.skipWaiting();
+});
+
+sw.addEventListener("activate", (event) => {
+  // Control the open pages at once, so a tick made on the page that installed the worker is queued too.
+  event.waitUntil(sw.clients.claim());
+});
+
+// The build id only makes each deploy's worker a different file; nothing else depends on it.
+void __TL_BUILD__;
