@@ -9,6 +9,7 @@ import { notFound } from "~/utils/errors";
 import { failureOf } from "~/utils/forms";
 import { formHeaders } from "~/utils/forms.server";
 import { forPage } from "~/utils/http.server";
+import { OFFLINE_ANSWER, revalidateUnlessOffline } from "~/utils/offline-answer";
 import type { Route } from "./+types/me.checklist";
 import { checklistAction } from "./me.checklist.server";
 
@@ -35,12 +36,12 @@ export async function clientAction({ serverAction }: Route.ClientActionArgs) {
   try {
     return await serverAction();
   } catch (error) {
-    if (error instanceof TypeError) {
-      return { ok: false as const, message: "No connection: nothing was saved. Try again when you have signal." };
-    }
+    if (error instanceof TypeError || !navigator.onLine) return OFFLINE_ANSWER;
     throw error;
   }
 }
+
+export const shouldRevalidate = revalidateUnlessOffline;
 
 export const headers = formHeaders;
 
@@ -161,8 +162,11 @@ function PrintView({ checklist }: { checklist: Route.ComponentProps["loaderData"
         <tbody>
           {checklist.items.map((item) => (
             <tr key={item.id} className="break-inside-avoid border-b border-rule align-top">
-              <td className="py-1.5 font-mono text-base" aria-label={item.checked ? "ticked" : "not ticked"}>
-                {item.checked ? "☑" : "☐"}
+              <td className="py-1.5">
+                <span className="grid size-5 place-items-center border-2 border-ink text-sm font-bold leading-none">
+                  {item.checked ? "✓" : ""}
+                  <span className="sr-only">{item.checked ? "ticked" : "not ticked"}</span>
+                </span>
               </td>
               <td className="py-1.5 text-right font-mono tabular-nums">{item.quantity}</td>
               <td className="break-words py-1.5 pl-3">

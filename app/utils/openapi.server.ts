@@ -216,7 +216,7 @@ export const API_OPERATIONS: ApiOperation[] = [
   {
     method: "get",
     path: "/api/checklists/{id}",
-    summary: "One checklist with its items; `/api/checklists/{id}.csv` is the same as CSV",
+    summary: "One checklist with its items (the same as CSV at /api/checklists/{id}.csv)",
     who: "the owner",
     tag: "Checklists",
     answer: { status: 200, schema: checklistSchema, description: "The checklist" },
