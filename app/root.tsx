@@ -13,6 +13,7 @@ import { refusalShapeMiddleware, requestShapeMiddleware } from "./services/http/
 import { securityHeadersMiddleware } from "./services/http/security-headers.server";
 import { env, standIns } from "./utils/env.server";
 import { takeFlash } from "./utils/forms.server";
+import { revalidateUnlessOffline } from "./utils/offline-answer";
 import { permissionsFor } from "./utils/permissions";
 import type { RootData } from "./utils/root-data";
 
@@ -38,6 +39,9 @@ export const middleware: Route.MiddlewareFunction[] = [
 ];
 
 /** The signed-in member and what they may do, so screens can hide what they cannot use (the server checks again). */
+/** A page's change that never reached the server (no signal) reloads nothing (app/utils/offline-answer.ts). */
+export const shouldRevalidate = revalidateUnlessOffline;
+
 export async function loader(args: Route.LoaderArgs) {
   const user = await getUser(args);
   const { flash, headers } = await takeFlash(args.request);

@@ -30,6 +30,8 @@ export default [
   route("auth/github/callback", "routes/auth.github.callback.ts"),
   route("auth/github/link", "routes/auth.github.link.tsx"),
   route("me/account", "routes/me.account.tsx"),
+  route("me/checklists", "routes/me.checklists.tsx"),
+  route("me/checklists/:id", "routes/me.checklist.tsx"),
   route("me/checklists/:id/csv", "routes/me.checklist-csv.ts"),
   route("mail/opt-out/:token", "routes/mail.opt-out.tsx"),
   route("contributor-terms", "routes/contributor-terms.tsx"),
@@ -57,9 +59,12 @@ export default [
   // A reader's parts checklists (`:id.csv` on the checklist's address answers its CSV).
   route("api/checklists", "routes/api.checklists.ts"),
   route("api/checklists/:id", "routes/api.checklist.ts"),
+  route("api/checklists/:id/merge", "routes/api.checklist-merge.ts"),
   route("api/checklists/:id/items", "routes/api.checklist-items.ts"),
   route("api/checklists/:id/items/:itemId", "routes/api.checklist-item.ts"),
   // Any other /api address answers in the API's JSON error shape, not with the HTML 404 page.
+  route("api/openapi.json", "routes/api.openapi.ts"),
+  route("api/docs", "routes/api.docs.tsx"),
   route("api/*", "routes/api.not-found.ts"),
   route("*", "routes/not-found.tsx"),
 ] satisfies RouteConfig;

@@ -17,6 +17,7 @@ const navClass = ({ isActive }: { isActive: boolean }) =>
 const MENU: { to: string; label: string; permission?: string; role?: string }[] = [
   { to: "/me/account", label: "Account and sessions" },
   { to: "/me/vehicles", label: "My vehicles" },
+  { to: "/me/checklists", label: "Parts checklists", permission: "manage:checklist:own" },
   { to: "/workbench", label: "Workbench: my guides", permission: "create:guide" },
   { to: "/review", label: "Review desk", permission: "review:revision:any" },
   { to: "/contributor-terms", label: "Write guides for Torqueleaf", role: "reader" },

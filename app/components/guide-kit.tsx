@@ -1,3 +1,4 @@
+import { SaveChecklistButton } from "~/components/checklist-save";
 import { FitmentBadge } from "~/components/fitment";
 import type { PublishedGuide } from "~/models/library.server";
 import { keepUnitsTogether } from "~/utils/format";
@@ -12,7 +13,7 @@ const heading = "font-serif text-lg font-semibold text-spruce-900";
  * beside the steps, sticky, parts and tools on top (what a reader reaches for mid-article, fitment
  * having been settled before the first step), and scrolls within itself when taller than the window.
  */
-export function GuideKit({ guide }: { guide: Pick<PublishedGuide, "fitment" | "parts" | "tools"> }) {
+export function GuideKit({ guide }: { guide: Pick<PublishedGuide, "slug" | "fitment" | "parts" | "tools"> }) {
   return (
     <aside
       aria-label="Fitment, parts and tools"
@@ -70,6 +71,7 @@ export function GuideKit({ guide }: { guide: Pick<PublishedGuide, "fitment" | "p
             </li>
           ))}
         </ul>
+        <SaveChecklistButton slug={guide.slug} />
       </section>
       <section id="tools" className={card} aria-labelledby="tools-heading">
         <h2 id="tools-heading" className={heading}>

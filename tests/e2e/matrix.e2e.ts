@@ -23,7 +23,21 @@ const fixtures = {
   otherGuideId: 2,
   /** The revision in review (the seed's sixth guide's first revision, by the demo author). */
   inReviewRevisionId: 6,
+  /** The demo reader's checklist of the published guide and its first item, saved in beforeAll. */
+  checklistId: 0,
+  itemId: 0,
 };
+/** The reader's own checklist: the reader is its owner, everyone else is another account. */
+const checklistPath =
+  (suffix = "") =>
+  () =>
+    `/api/checklists/${fixtures.checklistId}${suffix}`;
+const checklistItemPath = () => () => `/api/checklists/${fixtures.checklistId}/items/${fixtures.itemId}`;
+const checklistPage =
+  (suffix = "") =>
+  () =>
+    `/me/checklists/${fixtures.checklistId}${suffix}`;
+const ownerOnly = (ok: number, anonymous: number) => only(["reader"], ok, 403, anonymous);
 const guidePath = (suffix: string) => (who: Who) =>
   `/api/guides/${who === "authorOther" ? fixtures.otherGuideId : fixtures.ownGuideId}/${suffix}`;
 const editorPath = (suffix: string) => (who: Who) =>
@@ -244,6 +258,43 @@ const MATRIX: Record<string, Probe[]> = {
       expect: only(["editor", "admin"], 400, 403, 401),
     },
   ],
+  "/me/checklists": [
+    { path: "/me/checklists", expect: signedIn(200, 302) },
+    // No guide named: 400 for everyone (the sign-in redirect needs a guide to come back to).
+    { method: "POST", path: "/me/checklists", form: { intent: "none" }, expect: all(400) },
+  ],
+  "/me/checklists/:id": [
+    { path: checklistPage(), expect: ownerOnly(200, 302) },
+    { method: "POST", path: checklistPage(), form: { intent: "none" }, expect: ownerOnly(400, 302) },
+  ],
+  "/me/checklists/:id/csv": [{ path: checklistPage("/csv"), expect: ownerOnly(200, 302) }],
+  "/api/checklists": [
+    { path: "/api/checklists", expect: signedIn(200, 401) },
+    { method: "POST", path: "/api/checklists", json: {}, expect: signedIn(400, 401) },
+  ],
+  "/api/checklists/:id": [
+    { path: checklistPath(), expect: ownerOnly(200, 401) },
+    { path: checklistPath(".csv"), expect: ownerOnly(200, 401) },
+    { method: "PUT", path: checklistPath(), json: {}, expect: all(405) },
+  ],
+  "/api/checklists/:id/merge": [{ method: "POST", path: checklistPath("/merge"), expect: ownerOnly(200, 401) }],
+  "/api/checklists/:id/items": [
+    { path: checklistPath("/items"), expect: ownerOnly(200, 401) },
+    { method: "POST", path: checklistPath("/items"), json: {}, expect: ownerOnly(400, 401) },
+  ],
+  "/api/checklists/:id/items/:itemId": [
+    { method: "PATCH", path: checklistItemPath(), json: { checked: true }, expect: ownerOnly(200, 401) },
+    // A guide's own item is ticked off, never deleted.
+    { method: "DELETE", path: checklistItemPath(), expect: ownerOnly(409, 401) },
+  ],
+  "/api/openapi.json": [
+    { path: "/api/openapi.json", expect: all(200) },
+    { method: "POST", path: "/api/openapi.json", json: {}, expect: all(405) },
+  ],
+  "/api/docs": [
+    { path: "/api/docs", expect: all(200) },
+    { method: "POST", path: "/api/docs", json: {}, expect: all(405) },
+  ],
   "/api/*": [
     { path: "/api/no-such-endpoint", expect: all(404) },
     { method: "POST", path: "/api/no-such-endpoint", json: {}, expect: all(404) },
@@ -268,6 +319,15 @@ beforeAll(async () => {
     steps: { photos: { variants: { url: string }[] }[] }[];
   };
   const url = guide.steps.flatMap((s) => s.photos)[0].variants[0].url;
+  const saved = await fetch(`${origin}/api/checklists`, {
+    method: "POST",
+    headers: { origin, cookie: sessions.get("reader") ?? "", "content-type": "application/json" },
+    body: JSON.stringify({ guideSlug: fixtures.publishedSlug }),
+  });
+  const checklist = (await saved.json()) as { id: number; items: { id: number }[] };
+  if (saved.status !== 201 && saved.status !== 200) throw new Error(`the reader's checklist was not saved: ${saved.status}`);
+  fixtures.checklistId = checklist.id;
+  fixtures.itemId = checklist.items[0].id;
   fixtures.photo = new URL(url, origin).pathname;
   // The guide ids above are the seed's order: check they still name the guides the rows mean.
   const own = await fetch(`${origin}/api/guides/${fixtures.ownGuideId}/draft`, {

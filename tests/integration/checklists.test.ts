@@ -1,7 +1,7 @@
 import { parse } from "csv-parse/sync";
 import { beforeAll, describe, expect, it } from "vitest";
 import type { DraftInput } from "~/models/guide-input";
-import { type TestClient, uniqueEmail } from "../support/http-client";
+import { expectFlash, plainText, type TestClient, uniqueEmail } from "../support/http-client";
 import { sharedApp } from "../support/shared-app";
 import { type ApiError, sendJson } from "./authoring-support";
 import { currentRevision, demoUser, draftFrom } from "./revision-fixtures";
@@ -87,7 +87,8 @@ beforeAll(async () => {
   guideId = created.id;
   slug = created.slug;
   await publish(guideId, author, content, true);
-});
+  // Publishing runs the review engine and hashes a password: slow on a busy machine.
+}, 180_000);
 
 async function save(client: TestClient, guideSlug = slug) {
   return sendJson<Checklist>(client, "POST", "/api/checklists", { guideSlug });
@@ -301,7 +302,7 @@ describe("parts checklists", () => {
     const laptop = app.client();
     for (const [k, v] of client.cookies) laptop.cookies.set(k, v);
     const [merged, ticked] = await Promise.all([
-      sendJson<{ added: number; removed: number; checklist: Checklist }>(client, "POST", `/api/checklists/${body.id}?merge`),
+      sendJson<{ added: number; removed: number; checklist: Checklist }>(client, "POST", `/api/checklists/${body.id}/merge`),
       patch(laptop, `/api/checklists/${body.id}/items/${connectors.id}`, { checked: true }),
     ]);
     expect(merged.status).toBe(200);
@@ -317,7 +318,7 @@ describe("parts checklists", () => {
     expect(byName.get("Inline fuse holder")).toMatchObject({ checked: false, quantity: 1, partNumber: "TL-FH-10", own: false });
     expect(byName.get("Cable ties")).toMatchObject({ id: own.body.id, own: true, quantity: 20 });
     // Merging again changes nothing.
-    const again = await sendJson<{ added: number; removed: number }>(client, "POST", `/api/checklists/${body.id}?merge`);
+    const again = await sendJson<{ added: number; removed: number }>(client, "POST", `/api/checklists/${body.id}/merge`);
     expect(again.body).toMatchObject({ added: 0, removed: 0 });
     // Progress on the list leaves out the removed relay: 6 items now, 2 of them ticked (the lamp and the connectors).
     const list = await sendJson<{ checklists: { id: number; total: number; checked: number }[] }>(
@@ -329,5 +330,60 @@ describe("parts checklists", () => {
     // The removed relay may now be deleted; the reader's own item too.
     expect((await client.request(`/api/checklists/${body.id}/items/${relay.id}`, { method: "DELETE" })).status).toBe(204);
     expect((await client.request(`/api/checklists/${body.id}/items/${own.body.id}`, { method: "DELETE" })).status).toBe(204);
+  });
+
+  it("works as plain forms without JavaScript: save from the guide page, tick, note, own item, print, delete", async () => {
+    // Someone not signed in is sent to sign in and back to the guide's parts.
+    const anonymous = await app.client().post("/me/checklists", { guideSlug: slug });
+    expect(anonymous.status).toBe(302);
+    expect(anonymous.headers.get("location")).toBe(`/login?redirectTo=${encodeURIComponent(`/guides/${slug}#parts`)}`);
+    expect(plainText(await (await app.client().get(`/guides/${slug}`)).text())).toContain("Save a parts checklist");
+
+    const { client } = await newAccount("reader", "Sven Ekdahl");
+    const saved = await client.post("/me/checklists", { guideSlug: slug });
+    expect(saved.status).toBe(302);
+    const page = saved.headers.get("location") ?? "";
+    expect(page).toMatch(/^\/me\/checklists\/\d+$/);
+    await expectFlash(client, saved, page, "Tick them off as you buy them");
+    const id = Number(page.split("/").at(-1));
+    const checklist = (await sendJson<Checklist>(client, "GET", `/api/checklists/${id}`)).body;
+    const [first] = checklist.items;
+
+    expect((await client.post(page, { intent: "tick", itemId: String(first.id), checked: "true" })).status).toBe(302);
+    expect((await client.post(page, { intent: "item", itemId: String(first.id), quantity: "3", note: "Shelf B" })).status).toBe(
+      302,
+    );
+    expect((await client.post(page, { intent: "add", name: "Grommet, 20 mm", quantity: "2" })).status).toBe(302);
+    const refused = await client.post(page, { intent: "add", name: "Loom tape", quantity: "0" });
+    expect(refused.status).toBe(400);
+    const refusedText = plainText(await refused.text());
+    expect(refusedText).toContain("quantity: at least 1");
+    // What was typed comes back into the form.
+    expect(refusedText).not.toContain("Loom tape ×");
+    expect(await (await client.post(page, { intent: "add", name: "Loom tape", quantity: "0" })).text()).toContain(
+      'value="Loom tape"',
+    );
+    const fetched = await client.post(page, { intent: "tick", itemId: String(first.id), checked: "true", via: "fetcher" });
+    expect(fetched.status).toBe(200);
+
+    const shown = plainText(await (await client.get(page)).text());
+    expect(shown).toContain("3× Lamp pair, 12 V");
+    expect(shown).toContain("Shelf B");
+    expect(shown).toContain("2× Grommet, 20 mm");
+    expect(shown).toContain("1 of 6 ticked");
+    expect(plainText(await (await client.get("/me/checklists")).text())).toContain("1 of 6 ticked");
+    const print = plainText(await (await client.get(`${page}?print=1`)).text());
+    expect(print).toContain("✓ ticked");
+    expect(print).toContain("Grommet, 20 mm");
+
+    // Another reader cannot open it, and the page sends an anonymous visitor to sign in.
+    const { client: other } = await newAccount("reader", "Ada Marsh");
+    expect((await other.get(page)).status).toBe(403);
+    expect((await other.post(page, { intent: "tick", itemId: String(first.id), checked: "false" })).status).toBe(403);
+    expect((await app.client().get(page)).status).toBe(302);
+
+    // Deleting it from the page goes back to the list.
+    const deleted = await client.post(page, { intent: "delete" });
+    await expectFlash(client, deleted, "/me/checklists", "The checklist is deleted.");
   });
 });

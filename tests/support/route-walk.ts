@@ -91,6 +91,18 @@ export const ROUTE_PATHS: Record<string, (photo: string) => string[]> = {
   "/review/:revisionId": () => [`/review/${fixtures.inReviewRevisionId}`, "/review/not-a-number"],
   "/api/review/queue": () => ["/api/review/queue"],
   "/api/review/:revisionId": () => [`/api/review/${fixtures.inReviewRevisionId}`, "/api/review/not-a-number"],
+  // Checklists: the demo data has none, so these answer 401, 403 or 404 to the walkers (the
+  // checklist tests and the matrix cover the owner's answers).
+  "/me/checklists": () => ["/me/checklists"],
+  "/me/checklists/:id": () => ["/me/checklists/1", "/me/checklists/1?print=1", "/me/checklists/not-a-number"],
+  "/me/checklists/:id/csv": () => ["/me/checklists/1/csv"],
+  "/api/checklists": () => ["/api/checklists"],
+  "/api/checklists/:id": () => ["/api/checklists/1", "/api/checklists/1.csv", "/api/checklists/not-a-number"],
+  "/api/checklists/:id/merge": () => ["/api/checklists/1/merge"],
+  "/api/checklists/:id/items": () => ["/api/checklists/1/items"],
+  "/api/checklists/:id/items/:itemId": () => ["/api/checklists/1/items/1", "/api/checklists/1/items/x"],
+  "/api/openapi.json": () => ["/api/openapi.json"],
+  "/api/docs": () => ["/api/docs"],
   "/api/*": () => ["/api/no-such-endpoint"],
   "/*": () => ["/no-such-page"],
 };
