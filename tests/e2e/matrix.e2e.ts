@@ -260,8 +260,8 @@ const MATRIX: Record<string, Probe[]> = {
   ],
   "/me/checklists": [
     { path: "/me/checklists", expect: signedIn(200, 302) },
-    // No guide named: 400 for everyone (the sign-in redirect needs a guide to come back to).
-    { method: "POST", path: "/me/checklists", form: { intent: "none" }, expect: all(400) },
+    // No guide named: 400, and the page that would show it sends an anonymous visitor to sign in.
+    { method: "POST", path: "/me/checklists", form: { intent: "none" }, expect: signedIn(400, 302) },
   ],
   "/me/checklists/:id": [
     { path: checklistPage(), expect: ownerOnly(200, 302) },

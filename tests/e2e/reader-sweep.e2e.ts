@@ -27,11 +27,13 @@ const READER_PAGES = [
   "/signup",
   "/reset",
   "/contributor-terms",
+  "/api/docs",
 ];
 
 /** Pages behind sign-in, with the demo account that may open them (api.md, demo accounts). */
 const SIGNED_IN_PAGES: { path: string; account: keyof typeof ACCOUNTS }[] = [
   { path: "/me/account", account: "reader" },
+  { path: "/me/checklists", account: "reader" },
   { path: "/admin/users", account: "admin" },
   { path: "/admin/audit", account: "admin" },
   { path: "/admin/catalogue", account: "admin" },
@@ -79,6 +81,48 @@ describe("accessibility (axe-core, WCAG 2.2 A and AA rules)", () => {
     expect(grave).toEqual([]);
     expect(errors).toEqual([]);
     await page.close();
+  });
+});
+
+describe("a parts checklist", () => {
+  it("saved from a guide page, ticked and printed: no serious or critical violation, nothing under 44 px at 360 px", async () => {
+    const phone = await launchBrowser({ viewport: { width: 360, height: 780 } });
+    try {
+      const { page, errors } = await openPage(phone);
+      await signInAs(page, "reader");
+      await settle(page, "/guides/kestrel-hood-auxiliary-lamps");
+      await page.getByRole("button", { name: "Save a parts checklist" }).click();
+      await page.waitForURL(/\/me\/checklists\/\d+$/);
+      await page.waitForLoadState("networkidle");
+      const path = new URL(page.url()).pathname;
+      await page
+        .getByRole("button", { name: /^Ticked off:/ })
+        .first()
+        .click();
+      await page.waitForLoadState("networkidle");
+      for (const [url, media] of [
+        [path, "screen"],
+        [`${path}?print=1`, "print"],
+      ] as const) {
+        await page.emulateMedia({ media });
+        await settle(page, url);
+        const result = await new AxeBuilder({ page })
+          .withTags(["wcag2a", "wcag2aa", "wcag21a", "wcag21aa", "wcag22aa"])
+          .analyze();
+        const grave = result.violations
+          .filter((v) => v.impact === "serious" || v.impact === "critical")
+          .map((v) => `${v.id} (${v.impact}): ${v.nodes.map((n) => n.target.join(" ")).join(", ")}`);
+        expect(grave, url).toEqual([]);
+        if (media === "screen") {
+          const found = await phoneProblems(page);
+          expect(found, url).toEqual({ sideways: null, small: [] });
+          await screenshot(page, "phone-checklist");
+        }
+      }
+      expect(errors).toEqual([]);
+    } finally {
+      await phone.close();
+    }
   });
 });
 
