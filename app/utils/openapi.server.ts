@@ -8,7 +8,9 @@ import {
   itemPatchSchema,
   ownItemSchema,
 } from "~/models/checklist-input";
+import { reportInputSchema } from "~/models/fitment-reports.server";
 import { libraryQuerySchema } from "~/models/library.server";
+import { vehicleInputSchema } from "~/models/vehicles.server";
 import { CATEGORIES, DRIVETRAINS, FITMENT_STATUSES, POWERTRAINS } from "./vocab";
 
 /**
@@ -55,6 +57,18 @@ const REFUSAL_WORDS: Record<ApiOperation["refusals"][number], string> = {
   413: "The body is too large.",
   415: "Send the body as JSON.",
 };
+
+const vehicleListSchema = z.object({
+  vehicles: z.array(
+    z.object({
+      id: z.number().int(),
+      variantId: z.number().int(),
+      year: z.number().int().nullable(),
+      nickname: z.string().nullable(),
+      current: z.boolean(),
+    }),
+  ),
+});
 
 // ── Answers of the public reader routes (they are built by the models; these describe them) ──
 
@@ -279,7 +293,64 @@ export const API_OPERATIONS: ApiOperation[] = [
     answer: { status: 204, description: "Removed" },
     refusals: [401, 403, 404, 409],
   },
-  // My vehicles and fitment reports (design/api.md): one entry per route here, with its schemas.
+  // My vehicles and fitment reports (design/api.md).
+  {
+    method: "get",
+    path: "/api/me/vehicles",
+    summary: "The reader's saved vehicles, the current one marked",
+    who: "signed in",
+    tag: "Vehicles",
+    answer: { status: 200, schema: vehicleListSchema, description: "The saved vehicles" },
+    refusals: [401],
+  },
+  {
+    method: "post",
+    path: "/api/me/vehicles",
+    summary: "Save a vehicle: a catalogue variant, a model year within its generation and a nickname",
+    who: "signed in",
+    tag: "Vehicles",
+    body: vehicleInputSchema,
+    answer: {
+      status: 201,
+      schema: vehicleListSchema.extend({ id: z.number().int() }),
+      description: "The new vehicle's id and the whole list",
+    },
+    refusals: [400, 401, 413, 415],
+  },
+  {
+    method: "delete",
+    path: "/api/me/vehicles/{id}",
+    summary: "Delete a saved vehicle (the newest left becomes current if it was)",
+    who: "the owner",
+    tag: "Vehicles",
+    answer: { status: 200, schema: vehicleListSchema, description: "The vehicles left" },
+    refusals: [401, 403, 404],
+  },
+  {
+    method: "post",
+    path: "/api/guides/{slug}/fitment-reports",
+    summary: "Report how the guide fitted one of the reader's vehicles; a second report for the same variant replaces the first",
+    who: "signed in",
+    tag: "Fitment reports",
+    body: reportInputSchema,
+    answer: {
+      status: 201,
+      schema: z.object({
+        report: z.object({
+          id: z.number().int(),
+          guideId: z.number().int(),
+          variantId: z.number().int(),
+          year: z.number().int().nullable(),
+          vehicleId: z.number().int().nullable(),
+          outcome: z.enum(FITMENT_STATUSES),
+          note: z.string().nullable(),
+          replaced: z.boolean().meta({ description: "Whether it replaced the reader's earlier report" }),
+        }),
+      }),
+      description: "The report as saved",
+    },
+    refusals: [400, 401, 404, 413, 415],
+  },
 ];
 
 /** `{id}`, `{itemId}` and `{slug}` in a path as its string parameters. */

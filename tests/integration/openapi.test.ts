@@ -74,13 +74,15 @@ describe("the OpenAPI document", () => {
     }
   });
 
-  it("lists every checklist route and the public reader routes, with the schemas the routes parse", async () => {
+  it("lists every reader route (checklists, vehicles, fitment reports) and the public ones, with the schemas the routes parse", async () => {
     const doc = (await (await app.client().get("/api/openapi.json")).json()) as Document;
     const listed = new Set(Object.entries(doc.paths).flatMap(([path, item]) => Object.keys(item).map((m) => `${m} ${path}`)));
     const openApiPath = (pattern: string) => pattern.replace(/:(\w+)/g, "{$1}");
     const checklistRoutes = routeList()
       .map((r) => r.pattern)
-      .filter((p) => p.startsWith("/api/checklists"));
+      .filter(
+        (p) => p.startsWith("/api/checklists") || p.startsWith("/api/me/vehicles") || /^\/api\/.*\/fitment-reports$/.test(p),
+      );
     expect(checklistRoutes.length).toBeGreaterThanOrEqual(5);
     for (const pattern of checklistRoutes) {
       expect(
@@ -101,6 +103,10 @@ describe("the OpenAPI document", () => {
       "post /api/checklists/{id}/items",
       "patch /api/checklists/{id}/items/{itemId}",
       "delete /api/checklists/{id}/items/{itemId}",
+      "get /api/me/vehicles",
+      "post /api/me/vehicles",
+      "delete /api/me/vehicles/{id}",
+      "post /api/guides/{slug}/fitment-reports",
     ]) {
       expect(listed, entry).toContain(entry);
     }
