@@ -27,6 +27,7 @@ import {
   POWERTRAINS,
 } from "~/utils/vocab";
 import { Pager } from "~/components/pager";
+import { currentVehicle } from "~/models/vehicles.server";
 import { READER_PAGE } from "~/utils/reader-page";
 import type { Route } from "./+types/library";
 
@@ -42,7 +43,7 @@ export const meta: Route.MetaFunction = () => [
   },
 ];
 
-export async function loader({ request }: Route.LoaderArgs) {
+export async function loader({ request, context }: Route.LoaderArgs) {
   const url = new URL(request.url);
   // A plain form sends every field, empty or not; the address keeps only the ones that filter.
   const kept = withoutEmptyParams(url.searchParams);
@@ -59,9 +60,9 @@ export async function loader({ request }: Route.LoaderArgs) {
   const query = parseLibraryQuery(params);
   const db = await getDb();
   const stamps = await readContentStamps(db);
-  // The variant the cards are judged against: the one the address names. When the reader's current
-  // vehicle is known (vehicles.server.ts), it fills in here:
-  //   query.for ??= query.fits ? undefined : (await currentVehicle(request, db))?.variantId;
+  // The variant the cards are judged against: the one the address names, else the reader's current
+  // vehicle (a signed-in reader's, or a visitor's picked one; either makes the page private).
+  query.for ??= query.fits ? undefined : (await currentVehicle({ request, context }, db))?.variantId;
   const [result, catalogue] = await Promise.all([readLibrary(db, query, stamps), readCatalogue(db, stamps)]);
   const readerVariant = variantNamed(catalogue, query.fits ?? query.for);
   const selectedVehicle = [query.make, query.model, query.generation].filter(Boolean).join(".");
