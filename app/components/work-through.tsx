@@ -2,7 +2,7 @@ import { createContext, type ReactNode, useCallback, useContext, useEffect, useM
 import { localTicksPrefix, SYNCED_EVENT, syncQueued } from "~/utils/offline-client";
 import { QUEUED_HEADER, type ReaderId } from "~/utils/offline-protocol";
 import { useRootData } from "~/utils/root-data";
-import { type StepTicks, stepTicksPath } from "~/utils/step-ticks";
+import { type StepTicks, stepTicksPath, TICK_READER_HEADER } from "~/utils/step-ticks";
 
 /**
  * Work-through mode: a "done" tick on every step and a progress bar. The page itself is the same
@@ -115,7 +115,7 @@ export function WorkThroughProvider({
       };
       fetch(stepTicksPath(slug), {
         method: "PUT",
-        headers: { "content-type": "application/json", accept: "application/json" },
+        headers: { "content-type": "application/json", accept: "application/json", [TICK_READER_HEADER]: String(reader) },
         body: JSON.stringify({ revision, position, done: !wasDone }),
       }).then(
         async (response) => {

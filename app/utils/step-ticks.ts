@@ -20,3 +20,10 @@ export type StepTicks = { revision: number; done: number[] };
 
 /** The address of a guide's step ticks for the signed-in reader. */
 export const stepTicksPath = (slug: string) => `/api/guides/${encodeURIComponent(slug)}/step-ticks`;
+
+/**
+ * The header a page puts on its tick: the id of the reader it was made for. A tick queued without
+ * signal may be sent later with whoever's session the browser then holds; the route refuses it when
+ * the two differ, so it never lands on another reader's account.
+ */
+export const TICK_READER_HEADER = "X-Torqueleaf-Reader";

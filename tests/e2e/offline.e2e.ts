@@ -245,3 +245,57 @@ it("checklist item ticks made without signal are queued and the server has both 
   await browser.request.delete(`${origin}/api/checklists/${id}`, { headers: { origin } });
   expect(errors.filter((e) => !/Failed to load resource|ERR_INTERNET_DISCONNECTED/.test(e))).toEqual([]);
 });
+
+it("a tick queued by one reader is never sent with the session of whoever signs in next", async () => {
+  const browser = await launchBrowser({ viewport: { width: 360, height: 780 } });
+  context = browser;
+  const first = await openPage(browser);
+  await signIn(first.page, "reader@torqueleaf.test");
+  await first.page.goto(GUIDE);
+  await settle(first.page);
+  await controlled(first.page);
+  const last = (await (await browser.request.get(TICKS)).json()) as { revision: number; done: number[] };
+  const position = 7;
+  await browser.request.put(TICKS, { headers: { origin }, data: { revision: last.revision, position, done: false } });
+  await browser.setOffline(true);
+  await stepDone(first.page, position + 1).click();
+  await first.page.getByText("No signal: the tick is kept on this device").waitFor();
+  // The reader's session ends without signal (cookies cleared, the page closed); another person signs in.
+  await first.page.close();
+  await browser.clearCookies();
+  // Signed in while the browser has no signal (the API client shares its cookie jar but not its
+  // network), so when the signal returns the worker's background sync sends the queue under their session.
+  const signedIn = await browser.request.post(`${origin}/login`, {
+    headers: { origin },
+    form: { email: "author@torqueleaf.test", password: "torqueleaf-demo" },
+    maxRedirects: 0,
+  });
+  expect(signedIn.status()).toBe(302);
+  await browser.setOffline(false);
+  const second = await openPage(browser);
+  await second.page.goto(GUIDE);
+  await settle(second.page);
+  await expect.poll(() => second.page.getByRole("progressbar").getAttribute("aria-valuetext")).toMatch(/ of \d+ steps done$/);
+  // The worker has dealt with its queue (Serwist keeps it in the "serwist-background-sync" IndexedDB): nothing is left to send.
+  const queued = () =>
+    second.page.evaluate(
+      () =>
+        new Promise<number>((resolve, reject) => {
+          const open = indexedDB.open("serwist-background-sync");
+          open.onerror = () => reject(open.error);
+          open.onsuccess = () => {
+            const db = open.result;
+            const stores = [...db.objectStoreNames];
+            if (!stores.length) return resolve(0);
+            const count = db.transaction(stores).objectStore(stores[0]).count();
+            count.onsuccess = () => resolve(count.result);
+            count.onerror = () => reject(count.error);
+          };
+        }),
+    );
+  await expect.poll(queued, { timeout: 20_000 }).toBe(0);
+  const authorTicks = (await (await browser.request.get(TICKS)).json()) as { done: number[] };
+  expect(authorTicks.done).not.toContain(position);
+  expect(await stepDone(second.page, position + 1).getAttribute("aria-pressed")).toBe("false");
+  expect(second.errors).toEqual([]);
+});

@@ -52,6 +52,21 @@ describe("a reader's step ticks", () => {
     expect((await sendJson<StepTicks>(reader, "GET", PATH)).body.done).not.toContain(stepCount - 1);
   });
 
+  it("refuse with 409 a tick whose X-Torqueleaf-Reader names another reader (a queued tick sent under the next session)", async () => {
+    const me = (await (await reader.request("/api/me")).json()) as { user: { id: number } };
+    const send = (who: string) =>
+      reader.request(PATH, {
+        method: "PUT",
+        headers: { "content-type": "application/json", "X-Torqueleaf-Reader": who },
+        body: JSON.stringify({ revision, position: 1, done: true }),
+      });
+    const other = await send(String(me.user.id + 1));
+    expect(other.status).toBe(409);
+    expect((await sendJson<StepTicks>(reader, "GET", PATH)).body.done).not.toContain(1);
+    expect((await send(String(me.user.id))).status).toBe(200);
+    await put(reader, { revision, position: 1, done: false });
+  });
+
   it("need a signed-in reader: 401 for anonymous callers, reading or writing", async () => {
     const anonymous = new TestClient(app.origin);
     expect((await sendJson<ApiError>(anonymous, "GET", PATH)).status).toBe(401);
