@@ -450,27 +450,45 @@ const SNIPPET_TOKENS = 20;
  * highlight and snippet, asked only for the page's revisions), as safe HTML.
  */
 async function searchHighlights(db: Db, match: string, revisionIds: number[]) {
-  const found = new Map<number, { title: string; summary: string; steps: string | null }>();
-  if (!revisionIds.length) return found;
+  const found = new Map<number, Highlight>();
+  const missing: number[] = [];
+  for (const id of revisionIds) {
+    const kept = highlights.get(`${id} ${match}`);
+    if (kept) found.set(id, kept);
+    else missing.push(id);
+  }
+  if (!missing.length) return found;
   const open = sql`${MARK_OPEN}`;
   const close = sql`${MARK_CLOSE}`;
+  // FTS5's marks cost a walk over the search's matches (for a common word, nearly every guide):
+  // asked once for the page's revisions, and kept.
   const rows = await db.all<{ id: number; title: string; summary: string; steps: string }>(sql`
     SELECT rowid AS id, highlight(guide_search, 0, ${open}, ${close}) AS title,
       highlight(guide_search, 1, ${open}, ${close}) AS summary,
       snippet(guide_search, 2, ${open}, ${close}, '…', ${SNIPPET_TOKENS}) AS steps
     FROM guide_search WHERE guide_search MATCH ${match} AND rowid IN (${sql.join(
-      revisionIds.map((id) => sql`${id}`),
+      missing.map((id) => sql`${id}`),
       sql`, `,
     )})`);
   for (const row of rows) {
-    found.set(Number(row.id), {
+    const highlight = {
       title: markedHtml(row.title ?? ""),
       summary: markedHtml(row.summary ?? ""),
       steps: row.steps?.includes(MARK_OPEN) ? markedHtml(row.steps) : null,
-    });
+    };
+    found.set(Number(row.id), highlight);
+    highlights.set(`${row.id} ${match}`, highlight);
   }
   return found;
 }
+
+type Highlight = { title: string; summary: string; steps: string | null };
+
+/**
+ * A revision's marks for a search never change (a revision's text is frozen once published; a
+ * draft preview does not search): kept by revision and search, a few KB each.
+ */
+const highlights = new BoundedCache<string, Highlight>(2048);
 
 type FitmentWithVehicle = LoadedRevision["fitment"][number];
 

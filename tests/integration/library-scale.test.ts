@@ -306,7 +306,7 @@ describe("the Library against a brute-force count", () => {
       fc.asyncProperty(queries(), async (q) => {
         await check(q);
       }),
-      { numRuns: 120 },
+      { numRuns: 60 },
     );
 
     // Pages of a narrow list walked to the end, in each order; the same page asked twice is the same.
