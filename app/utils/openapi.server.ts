@@ -11,6 +11,7 @@ import {
 import { reportInputSchema } from "~/models/fitment-reports.server";
 import { libraryQuerySchema } from "~/models/library.server";
 import { vehicleInputSchema } from "~/models/vehicles.server";
+import { stepTickInputSchema } from "./step-ticks";
 import { CATEGORIES, DRIVETRAINS, FITMENT_STATUSES, POWERTRAINS } from "./vocab";
 
 /**
@@ -27,7 +28,7 @@ export type ApiOperation = {
   summary: string;
   /** Who may call it, in the words of design/api.md ("anyone", "signed in", "the owner"). */
   who: string;
-  tag: "Guides" | "Checklists" | "Vehicles" | "Fitment reports" | "Catalogue";
+  tag: "Guides" | "Checklists" | "Vehicles" | "Fitment reports" | "Work-through" | "Catalogue";
   query?: z.ZodObject;
   body?: z.ZodType;
   answer: { status: 200 | 201 | 204; schema?: z.ZodType; type?: string; description: string };
@@ -57,6 +58,11 @@ const REFUSAL_WORDS: Record<ApiOperation["refusals"][number], string> = {
   413: "The body is too large.",
   415: "Send the body as JSON.",
 };
+
+const stepTicksSchema = z.object({
+  revision: z.number().int(),
+  done: z.array(z.number().int()).meta({ description: "Positions of the steps done (0 = step 1)" }),
+});
 
 const vehicleListSchema = z.object({
   vehicles: z.array(
@@ -292,6 +298,26 @@ export const API_OPERATIONS: ApiOperation[] = [
     tag: "Checklists",
     answer: { status: 204, description: "Removed" },
     refusals: [401, 403, 404, 409],
+  },
+  // Work-through mode: the steps a signed-in reader has ticked done on the published revision.
+  {
+    method: "get",
+    path: "/api/guides/{slug}/step-ticks",
+    summary: "The steps of the published revision the reader has ticked done (positions from 0)",
+    who: "signed in",
+    tag: "Work-through",
+    answer: { status: 200, schema: stepTicksSchema, description: "The reader's ticks" },
+    refusals: [401, 404],
+  },
+  {
+    method: "put",
+    path: "/api/guides/{slug}/step-ticks",
+    summary: "Tick a step done, or clear it; the same tick twice changes nothing (a queued copy may be replayed)",
+    who: "signed in",
+    tag: "Work-through",
+    body: stepTickInputSchema,
+    answer: { status: 200, schema: stepTicksSchema, description: "The reader's ticks after the change" },
+    refusals: [400, 401, 404, 409, 413, 415],
   },
   // My vehicles and fitment reports (design/api.md).
   {

@@ -74,7 +74,7 @@ describe("the OpenAPI document", () => {
     }
   });
 
-  it("lists every reader route (checklists, vehicles, fitment reports) and the public ones, with the schemas the routes parse", async () => {
+  it("lists every reader route (checklists, vehicles, fitment reports, step ticks) and the public ones, with the schemas the routes parse", async () => {
     const doc = (await (await app.client().get("/api/openapi.json")).json()) as Document;
     const listed = new Set(Object.entries(doc.paths).flatMap(([path, item]) => Object.keys(item).map((m) => `${m} ${path}`)));
     const openApiPath = (pattern: string) => pattern.replace(/:(\w+)/g, "{$1}");
@@ -107,6 +107,8 @@ describe("the OpenAPI document", () => {
       "post /api/me/vehicles",
       "delete /api/me/vehicles/{id}",
       "post /api/guides/{slug}/fitment-reports",
+      "get /api/guides/{slug}/step-ticks",
+      "put /api/guides/{slug}/step-ticks",
     ]) {
       expect(listed, entry).toContain(entry);
     }
