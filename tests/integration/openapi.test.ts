@@ -81,7 +81,10 @@ describe("the OpenAPI document", () => {
     const checklistRoutes = routeList()
       .map((r) => r.pattern)
       .filter(
-        (p) => p.startsWith("/api/checklists") || p.startsWith("/api/me/vehicles") || /^\/api\/.*\/fitment-reports$/.test(p),
+        (p) =>
+          p.startsWith("/api/checklists") ||
+          p.startsWith("/api/me/vehicles") ||
+          /^\/api\/.*\/(fitment-reports|step-ticks)$/.test(p),
       );
     expect(checklistRoutes.length).toBeGreaterThanOrEqual(5);
     for (const pattern of checklistRoutes) {
