@@ -34,6 +34,7 @@ const READER_PAGES = [
 const SIGNED_IN_PAGES: { path: string; account: keyof typeof ACCOUNTS }[] = [
   { path: "/me/account", account: "reader" },
   { path: "/me/checklists", account: "reader" },
+  { path: "/me/vehicles", account: "reader" },
   { path: "/admin/users", account: "admin" },
   { path: "/admin/audit", account: "admin" },
   { path: "/admin/catalogue", account: "admin" },
