@@ -25,6 +25,7 @@ import { approveRevision, submitRevision } from "~/models/review.server";
 import { createUser } from "~/models/users.server";
 import { CATEGORIES, type Category } from "~/utils/vocab";
 import { ROOT } from "./servers";
+import { seededRandom } from "../tests/support/seeded-random";
 import { option } from "./stats";
 
 const args = process.argv.slice(2);
@@ -41,18 +42,7 @@ if (existsSync(output) && !args.includes("--force")) {
   process.exit(2);
 }
 
-/** mulberry32: a small seeded generator, so the same arguments give the same database. */
-function generator(seed: number) {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
-const random = generator(20_000);
+const random = seededRandom(20_000);
 const int = (min: number, max: number) => min + Math.floor(random() * (max - min + 1));
 const pick = <T>(items: readonly T[]): T => items[Math.floor(random() * items.length)];
 const slug = (s: string) => s.toLowerCase().replace(/[^a-z0-9]+/g, "-");

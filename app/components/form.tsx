@@ -175,6 +175,28 @@ export function Notice({
   );
 }
 
+/** A refused form's message and, under it, what is wrong with each field (the fields also say so beside them). */
+export function FailureNotice({
+  failure,
+  focusOn,
+}: {
+  failure: { message: string; fields?: Record<string, string> };
+  focusOn?: unknown;
+}) {
+  return (
+    <Notice tone="error" focusOn={focusOn}>
+      <p className="font-semibold">{failure.message}</p>
+      {failure.fields ? (
+        <ul className="mt-1 list-disc pl-5">
+          {Object.values(failure.fields).map((why) => (
+            <li key={why}>{why}</li>
+          ))}
+        </ul>
+      ) : null}
+    </Notice>
+  );
+}
+
 export function SubmitButton({
   children,
   name,

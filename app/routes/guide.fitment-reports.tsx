@@ -1,7 +1,7 @@
 import { Link } from "react-router";
 import { z } from "zod";
 import { ReportForm } from "~/components/fitment-reports";
-import { Notice } from "~/components/form";
+import { FailureNotice } from "~/components/form";
 import { getDb } from "~/db/client.server";
 import {
   hideFitmentReport,
@@ -88,16 +88,7 @@ export default function ReportFitment({ loaderData, actionData }: Route.Componen
       <h1 className="font-serif text-2xl font-semibold text-spruce-900">Report fitment: {title}</h1>
       {failure ? (
         <div className="mt-4">
-          <Notice tone="error" focusOn={actionData}>
-            <p className="font-semibold">{failure.message}</p>
-            {failure.fields ? (
-              <ul className="mt-1 list-disc pl-5">
-                {Object.values(failure.fields).map((why) => (
-                  <li key={why}>{why}</li>
-                ))}
-              </ul>
-            ) : null}
-          </Notice>
+          <FailureNotice failure={failure} focusOn={actionData} />
         </div>
       ) : null}
       <div className="mt-4 rounded-lg border border-rule bg-white p-4">

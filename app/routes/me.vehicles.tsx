@@ -1,6 +1,6 @@
 import { Form, useLocation } from "react-router";
 import { z } from "zod";
-import { Notice } from "~/components/form";
+import { FailureNotice, Notice } from "~/components/form";
 import { VehiclePicker } from "~/components/vehicle-picker";
 import { getDb } from "~/db/client.server";
 import { NICKNAME_MAX } from "~/models/reader-limits";
@@ -110,16 +110,7 @@ export default function MyVehicles({ loaderData, actionData }: Route.ComponentPr
 
       {failure ? (
         <div className="mt-6">
-          <Notice tone="error" focusOn={actionData}>
-            <p className="font-semibold">{failure.message}</p>
-            {failure.fields ? (
-              <ul className="mt-1 list-disc pl-5">
-                {Object.values(failure.fields).map((why) => (
-                  <li key={why}>{why}</li>
-                ))}
-              </ul>
-            ) : null}
-          </Notice>
+          <FailureNotice failure={failure} focusOn={actionData} />
         </div>
       ) : null}
 

@@ -1,6 +1,7 @@
 import { sql } from "drizzle-orm";
 import type { Db } from "~/db/client.server";
 import { CATEGORIES, DRIVETRAINS, POWERTRAINS } from "~/utils/vocab";
+import { seededRandom } from "../support/seeded-random";
 
 /**
  * A generated catalogue for the Library's scale tests, written straight into a test database by
@@ -11,18 +12,6 @@ import { CATEGORIES, DRIVETRAINS, POWERTRAINS } from "~/utils/vocab";
  * then submitted and published, as the frozen-revision triggers require, and the search index is
  * filled by the migrations' own triggers. Names are invented; the output depends only on the seed.
  */
-
-/** mulberry32: a small seeded generator, so every run writes the same catalogue. */
-function generator(seed: number) {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 const quote = (s: string) => `'${s.replace(/'/g, "''")}'`;
 
@@ -55,7 +44,7 @@ async function inBatches(db: Db, rows: string[], head: string, size = 500) {
 }
 
 export async function writeCatalogue(db: Db, options: { guides: number; fitmentPerGuide: number; reports: number }) {
-  const random = generator(13);
+  const random = seededRandom(13);
   const int = (min: number, max: number) => min + Math.floor(random() * (max - min + 1));
   const tag = `scale${Date.now().toString(36)}`;
   const [author] = await db.all<{ id: number }>(sql`SELECT id FROM users WHERE email = 'author@torqueleaf.test'`);
