@@ -8,7 +8,7 @@ import { forbidden, notFound, unauthorized } from "~/utils/errors";
 import { type Actor, canOn } from "~/utils/permissions";
 import type { Category, FitmentStatus, GuideState, RevisionState } from "~/utils/vocab";
 import type { DraftInput } from "./guide-input";
-import { getGuideById, type LoadedRevision, loadRevision, rulesInput } from "./guides.server";
+import { getGuideById, type LoadedRevision, loadRevision, partsAndTools, rulesInput } from "./guides.server";
 import { publicVariants } from "./media.server";
 
 export type PhotoVariant = { width: number; format: "webp" | "jpeg"; url: string };
@@ -79,14 +79,7 @@ export function draftDocument(loaded: LoadedRevision, storage: Pick<Storage, "pu
       callouts: s.callouts.map((c): Callout => storedCallout(c)),
     })),
     fitment: loaded.fitment.map((f) => ({ variantId: f.variantId, status: f.status as FitmentStatus, note: f.note })),
-    parts: loaded.parts.map((p) => ({
-      name: p.name,
-      quantity: p.quantity,
-      partNumber: p.partNumber,
-      notes: p.notes,
-      stepIndex: p.stepIndex,
-    })),
-    tools: loaded.tools.map((t) => ({ name: t.name })),
+    ...partsAndTools(loaded),
   };
 }
 

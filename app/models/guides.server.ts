@@ -109,6 +109,20 @@ export async function loadRevision(db: Db, revisionId: number) {
 
 export type LoadedRevision = NonNullable<Awaited<ReturnType<typeof loadRevision>>>;
 
+/** A revision's parts and tools as the editor, the review desk and readers are given them. */
+export function partsAndTools(loaded: Pick<LoadedRevision, "parts" | "tools">) {
+  return {
+    parts: loaded.parts.map((p) => ({
+      name: p.name,
+      quantity: p.quantity,
+      partNumber: p.partNumber,
+      notes: p.notes,
+      stepIndex: p.stepIndex,
+    })),
+    tools: loaded.tools.map((t) => ({ name: t.name })),
+  };
+}
+
 /** The engine's view of a revision: what the safety rules read. Rows that do not fit are left out. */
 export function rulesInput(loaded: Pick<LoadedRevision, "steps" | "fitment">) {
   return {

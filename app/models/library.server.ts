@@ -7,7 +7,7 @@ import type { Storage } from "~/services/storage.server";
 import { BoundedCache } from "~/utils/bounded-cache";
 import { CATEGORIES, DRIVETRAINS, POWERTRAINS } from "~/utils/vocab";
 import { readContentStamps } from "./content-stamps.server";
-import { type LoadedRevision, loadRevision } from "./guides.server";
+import { type LoadedRevision, loadRevision, partsAndTools } from "./guides.server";
 import { publicVariants } from "./media.server";
 
 const SEARCH_MAX = 200;
@@ -557,14 +557,7 @@ export async function revisionView(db: Db, storage: Pick<Storage, "publicUrl">, 
         return { ...callout, result: evaluateCallout(callout) };
       }),
     })),
-    parts: loaded.parts.map((p) => ({
-      name: p.name,
-      quantity: p.quantity,
-      partNumber: p.partNumber,
-      notes: p.notes,
-      stepIndex: p.stepIndex,
-    })),
-    tools: loaded.tools.map((t) => ({ name: t.name })),
+    ...partsAndTools(loaded),
     fitment: loaded.fitment.map(fitmentView),
   };
 }

@@ -7,7 +7,7 @@ import { type SourceId, sourceRef } from "~/engine/sources";
 import type { Storage } from "~/services/storage.server";
 import { notFound } from "~/utils/errors";
 import { type Actor, assertCan, canOn } from "~/utils/permissions";
-import { type LoadedRevision, loadRevision, rulesInput } from "./guides.server";
+import { type LoadedRevision, loadRevision, partsAndTools, rulesInput } from "./guides.server";
 import { revisionView } from "./library.server";
 import { approvalBlockers, commentsOn, revisionCautions } from "./review.server";
 import type { ReviewQueueQuery } from "./review-input";
@@ -112,14 +112,7 @@ export function diffSource(loaded: LoadedRevision): DiffRevision {
         note: f.note,
       };
     }),
-    parts: loaded.parts.map((p) => ({
-      name: p.name,
-      quantity: p.quantity,
-      partNumber: p.partNumber,
-      notes: p.notes,
-      stepIndex: p.stepIndex,
-    })),
-    tools: loaded.tools.map((t) => ({ name: t.name })),
+    ...partsAndTools(loaded),
   };
 }
 
