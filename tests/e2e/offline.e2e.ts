@@ -318,7 +318,7 @@ it("a tick queued by one reader is never sent with the session of whoever signs 
   expect(second.errors).toEqual([]);
 });
 
-it("the checklist page is kept with its guide: ticks made on it without signal survive a reload and reach the server in order", async () => {
+it("the checklist page is kept with its guide: ticks and notes made on it without signal survive a reload and reach the server in order", async () => {
   const browser = await launchBrowser({ viewport: { width: 360, height: 780 } });
   context = browser;
   const { page, errors } = await openPage(browser);
@@ -340,7 +340,7 @@ it("the checklist page is kept with its guide: ticks made on it without signal s
   const read = async () =>
     (
       (await (await browser.request.get(`${origin}/api/checklists/${id}`)).json()) as {
-        items: { id: number; name: string; checked: boolean }[];
+        items: { id: number; name: string; checked: boolean; quantity: number; note: string | null }[];
       }
     ).items;
   const items = await read();
@@ -376,7 +376,13 @@ it("the checklist page is kept with its guide: ticks made on it without signal s
   expect(await tick(first.id).getAttribute("aria-pressed")).toBe("true");
   expect(await tick(second.id).getAttribute("aria-pressed")).toBe("true");
   await expect.poll(() => page.getByText(/^\d+ of \d+ ticked$/).textContent()).toMatch(/^2 of /);
-  expect(await queuedCount(page)).toBe(4);
+  // A quantity and a note changed without signal are queued the same way.
+  await row(second.id).getByText("Quantity and note").click();
+  await row(second.id).getByLabel("Quantity").fill("3");
+  await row(second.id).getByLabel("Note").fill("one spare for the trailer");
+  await row(second.id).getByRole("button", { name: "Save", exact: true }).click();
+  await expect.poll(() => row(second.id).getByText("3×").count()).toBe(1);
+  expect(await queuedCount(page)).toBe(5);
 
   // Reloaded without signal: the kept page, with the queued changes over it.
   await page.reload();
@@ -385,6 +391,8 @@ it("the checklist page is kept with its guide: ticks made on it without signal s
   expect(await tick(second.id).getAttribute("aria-pressed")).toBe("true");
   expect(await tick(third.id).getAttribute("aria-pressed")).toBe("false");
   await row(first.id).getByText(saved).waitFor();
+  expect(await row(second.id).getByText("3×").count()).toBe(1);
+  expect(await row(second.id).getByText("one spare for the trailer").count()).toBe(1);
   await screenshot(page, "offline-checklist-ticked-360");
   expect((await read()).filter((item) => item.checked)).toEqual([]);
 
@@ -394,6 +402,7 @@ it("the checklist page is kept with its guide: ticks made on it without signal s
   await expect
     .poll(async () => (await read()).filter((item) => item.checked).map((item) => item.id), { timeout: 20_000 })
     .toEqual([first.id, second.id]);
+  expect((await read()).find((item) => item.id === second.id)).toMatchObject({ quantity: 3, note: "one spare for the trailer" });
   // The page reads its data again and no row says it waits for the signal any more.
   await expect.poll(() => page.getByText(saved).count(), { timeout: 20_000 }).toBe(0);
   expect(await tick(first.id).getAttribute("aria-pressed")).toBe("true");
