@@ -3,6 +3,7 @@ import { useFetcher } from "react-router";
 import type { ChecklistView } from "~/models/checklist-input";
 import { CHECKLIST_LIMITS } from "~/models/checklist-input";
 import type { FormFailure } from "~/utils/forms";
+import { isQueuedAnswer, QUEUED_TEXT } from "~/utils/offline-checklist";
 
 type Item = ChecklistView["items"][number];
 type Answer = { ok: true; text: string | null } | FormFailure;
@@ -55,18 +56,26 @@ const button =
 
 /**
  * One item: the tick answers at once (the fetcher's own form data is shown until the server has
- * it; a refusal or a lost connection puts the tick back and says so), and quantity and note save
- * from a small form beneath. Without JavaScript the same forms post and the page comes back.
+ * it; a refusal or a lost connection with nothing to queue it puts the tick back and says so), and
+ * quantity and note save from a small form beneath. Without signal the service worker queues the
+ * change: the row keeps it and says it is on this device (`queued`, the reader's changes not yet
+ * sent, are already applied to `item`). Without JavaScript the same forms post and the page comes back.
  */
-export function ChecklistItemRow({ item }: { item: Item }) {
+export function ChecklistItemRow({ item, queued = false, onQueued }: { item: Item; queued?: boolean; onQueued?: () => void }) {
   const tick = useFetcher<Answer>({ key: `tick-${item.id}` });
   const edit = useFetcher<Answer>({ key: `edit-${item.id}` });
   const remove = useFetcher<Answer>({ key: `remove-${item.id}` });
+  // The answer to a change the worker queued: shown until the page's list of queued changes has it.
+  const tickQueued = tick.state === "idle" && isQueuedAnswer(tick.data) ? tick.data.change : null;
+  const editQueued = edit.state === "idle" && isQueuedAnswer(edit.data) ? edit.data.change : null;
+  useEffect(() => {
+    if (isQueuedAnswer(tick.data) || isQueuedAnswer(edit.data)) onQueued?.();
+  }, [tick.data, edit.data, onQueued]);
   const pendingTick = tick.formData?.get("checked");
-  const checked = pendingTick ? pendingTick === "true" : item.checked;
+  const checked = pendingTick ? pendingTick === "true" : (tickQueued?.checked ?? item.checked);
   const pendingEdit = edit.formData;
-  const quantity = pendingEdit ? Number(pendingEdit.get("quantity")) || item.quantity : item.quantity;
-  const note = pendingEdit ? String(pendingEdit.get("note") ?? "") : (item.note ?? "");
+  const quantity = pendingEdit ? Number(pendingEdit.get("quantity")) || item.quantity : (editQueued?.quantity ?? item.quantity);
+  const note = pendingEdit ? String(pendingEdit.get("note") ?? "") : (editQueued?.note ?? item.note ?? "");
   const failure = tick.state === "idle" ? failureOf(tick.data) : null;
   const editFailure = edit.state === "idle" ? failureOf(edit.data) : null;
   const removeFailure = remove.state === "idle" ? failureOf(remove.data) : null;
@@ -103,6 +112,11 @@ export function ChecklistItemRow({ item }: { item: Item }) {
             .join(" · ")}
         </p>
         {note ? <p className="mt-1 break-words text-sm">{note}</p> : null}
+        {queued || tickQueued || editQueued ? (
+          <p role="status" className="mt-1 text-sm text-brass-700">
+            {QUEUED_TEXT}
+          </p>
+        ) : null}
         <Failed failure={failure} />
         <Failed failure={editFailure} />
         <Failed failure={removeFailure} />

@@ -10,6 +10,8 @@ import { failureOf } from "~/utils/forms";
 import { formHeaders } from "~/utils/forms.server";
 import { forPage } from "~/utils/http.server";
 import { OFFLINE_ANSWER, revalidateUnlessOffline } from "~/utils/offline-answer";
+import { itemChangeOf, sendItemChange, useQueuedItems, withQueued } from "~/utils/offline-checklist";
+import { useRootData } from "~/utils/root-data";
 import type { Route } from "./+types/me.checklist";
 import { checklistAction } from "./me.checklist.server";
 
@@ -31,13 +33,21 @@ export async function loader(args: Route.LoaderArgs) {
 
 export const action = (args: Route.ActionArgs) => checklistAction(args);
 
-/** A lost connection is answered like a refusal, so the tick goes back and the row says why. */
-export async function clientAction({ serverAction }: Route.ClientActionArgs) {
+/**
+ * Without signal, a tick or a quantity and note goes through the item API instead, which the service
+ * worker queues: the row keeps it and says so. Any other change (or one with no worker to queue it)
+ * is answered like a refusal, so it goes back and the row says why.
+ */
+export async function clientAction({ request, params, serverAction }: Route.ClientActionArgs) {
+  const form = await request.clone().formData();
   try {
     return await serverAction();
   } catch (error) {
-    if (error instanceof TypeError || !navigator.onLine) return OFFLINE_ANSWER;
-    throw error;
+    if (!(error instanceof TypeError || !navigator.onLine)) throw error;
+    const checklist = Number(params.id);
+    const change = itemChangeOf(form);
+    if (!change || !Number.isInteger(checklist)) return OFFLINE_ANSWER;
+    return (await sendItemChange(checklist, change.itemId, change.change)) ?? OFFLINE_ANSWER;
   }
 }
 
@@ -49,8 +59,12 @@ const link =
   "inline-flex min-h-11 items-center rounded-md border border-rule px-3 text-sm font-medium text-spruce-800 hover:bg-paper-deep";
 
 export default function ChecklistPage({ loaderData, actionData }: Route.ComponentProps) {
-  const { checklist, print } = loaderData;
+  const { checklist: kept, print } = loaderData;
   const failure = failureOf(actionData);
+  const reader = useRootData()?.user?.id ?? null;
+  // Changes made without signal and still queued show over the state the page was loaded (or kept) with.
+  const { queued, refresh } = useQueuedItems(reader, kept.id);
+  const checklist = { ...kept, items: kept.items.map((item) => withQueued(item, queued.get(item.id))) };
   const current = checklist.items.filter((i) => !i.removed);
   const ticked = current.filter((i) => i.checked).length;
   const groups = [
@@ -110,7 +124,7 @@ export default function ChecklistPage({ loaderData, actionData }: Route.Componen
             <h2 className="pt-2 font-serif text-lg font-semibold text-spruce-900">{group.title}</h2>
             <ul className="divide-y divide-rule/60">
               {group.items.map((item) => (
-                <ChecklistItemRow key={item.id} item={item} />
+                <ChecklistItemRow key={item.id} item={item} queued={queued.has(item.id)} onQueued={refresh} />
               ))}
             </ul>
             {group.title === "Your own items" ? (

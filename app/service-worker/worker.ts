@@ -1,15 +1,33 @@
 /// <reference lib="webworker" />
 import { BackgroundSyncQueue } from "serwist";
 // zod's tree-shakable build: the worker is fetched by every visitor's browser.
-import { array, discriminatedUnion, int, literal, maxLength, nullable, object, positive, regex, string } from "zod/mini";
+import {
+  array,
+  boolean,
+  discriminatedUnion,
+  int,
+  literal,
+  maxLength,
+  maximum,
+  minimum,
+  nullable,
+  object,
+  optional,
+  positive,
+  regex,
+  string,
+} from "zod/mini";
 import {
   ASSETS_CACHE_PREFIX,
   KEEPABLE_PAGE,
+  KEPT_CHECKLIST_PAGE,
   type OfflineReply,
   PHOTOS_CACHE,
   pagesCacheName,
   QUEUED_CHANGES,
   QUEUED_HEADER,
+  QUEUED_ITEM_PATH,
+  type QueuedItemChange,
   type ReaderId,
 } from "../utils/offline-protocol";
 
@@ -158,11 +176,40 @@ async function fetchOk(url: string, init?: RequestInit): Promise<Response> {
   return response;
 }
 
+/** The app's files a kept page's markup names (its route modules, their imports, its style sheets). */
+const assetsIn = (html: string) => [...new Set(html.match(/\/assets\/[\w.-]+\.(?:js|css)/g) ?? [])].slice(0, 200);
+
+/**
+ * A signed-in reader's checklists copied from the guide: their pages and data, into this reader's
+ * cache beside the guide, and the app's files those pages load.
+ */
+async function keepChecklists(reader: number, page: string, build: string): Promise<void> {
+  const slug = decodeURIComponent(page.slice("/guides/".length));
+  const listed = object({
+    checklists: array(object({ id: int().check(positive()), guide: object({ slug: string() }) })).check(maxLength(500)),
+  }).safeParse(await (await fetchOk("/api/checklists", { headers: { accept: "application/json" } })).json());
+  if (!listed.success) return;
+  const pages = await caches.open(pagesCacheName(reader));
+  const assetCache = await caches.open(`${ASSETS_CACHE_PREFIX}${build}`);
+  for (const checklist of listed.data.checklists.filter((c) => c.guide.slug === slug)) {
+    const address = `/me/checklists/${checklist.id}`;
+    const [html, data] = await Promise.all([fetchOk(address), fetchOk(`${address}.data`)]);
+    const assets = assetsIn(await html.clone().text());
+    await Promise.all([pages.put(address, html), pages.put(`${address}.data`, data)]);
+    await Promise.all(
+      assets.map(async (url) => {
+        if (!(await assetCache.match(url))) await assetCache.put(url, await fetchOk(url, { cache: "default" }));
+      }),
+    );
+  }
+}
+
 async function keep(reader: ReaderId, page: string, photos: string[], assets: string[], build: string, discovery: string[]) {
   await setReader(reader);
   const [html, data] = await Promise.all([fetchOk(page), fetchOk(`${page}.data`)]);
   const pages = await caches.open(pagesCacheName(reader));
   await Promise.all([pages.put(page, html), pages.put(`${page}.data`, data)]);
+  if (reader !== null) await keepChecklists(reader, page, build);
   const photoCache = await caches.open(PHOTOS_CACHE);
   await Promise.all(
     photos.map(async (url) => {
@@ -190,7 +237,36 @@ const messageSchema = discriminatedUnion("type", [
   }),
   object({ type: literal("is-kept"), reader: readerSchema, page: address }),
   object({ type: literal("replay"), reader: readerSchema }),
+  object({ type: literal("queued-items"), reader: readerSchema, checklist: int().check(positive()) }),
 ]);
+
+const itemChangeSchema = object({
+  checked: optional(boolean()),
+  quantity: optional(int().check(minimum(1), maximum(1_000_000))),
+  note: optional(nullable(string().check(maxLength(10_000)))),
+});
+
+/** This reader's item changes to one checklist still in the queue, oldest first (none while another reader is signed in). */
+async function queuedItems(reader: ReaderId, checklist: number): Promise<QueuedItemChange[]> {
+  if (reader === null || (await storedReader()) !== reader) return [];
+  // A replay takes entries out while it sends them: wait, so a change is not missed while it is in flight.
+  await replaying?.catch(() => 0);
+  const changes: QueuedItemChange[] = [];
+  for (const entry of await queue.getAll()) {
+    if ((entry.metadata as { reader?: ReaderId } | undefined)?.reader !== reader || entry.request.method !== "PATCH") continue;
+    const match = QUEUED_ITEM_PATH.exec(new URL(entry.request.url).pathname);
+    if (!match || Number(match[1]) !== checklist) continue;
+    let body: unknown;
+    try {
+      body = await entry.request.clone().json();
+    } catch {
+      continue;
+    }
+    const change = itemChangeSchema.safeParse(body);
+    if (change.success) changes.push({ itemId: Number(match[2]), change: change.data });
+  }
+  return changes;
+}
 
 async function answer(data: unknown): Promise<OfflineReply> {
   const parsed = messageSchema.safeParse(data);
@@ -210,6 +286,8 @@ async function answer(data: unknown): Promise<OfflineReply> {
     case "replay":
       await setReader(message.reader);
       return { ok: true, replayed: await replay() };
+    case "queued-items":
+      return { ok: true, changes: await queuedItems(message.reader, message.checklist) };
   }
 }
 
@@ -245,7 +323,13 @@ sw.addEventListener("fetch", (event) => {
       event.respondWith(networkThenKept(request, url.pathname));
       return;
     }
-    if (url.pathname.endsWith(".data") && KEEPABLE_PAGE.test(url.pathname.slice(0, -".data".length))) {
+    // A reader's checklist kept with a guide: in their cache only, so another reader finds nothing there.
+    if (request.mode === "navigate" && url.search === "" && KEPT_CHECKLIST_PAGE.test(url.pathname)) {
+      event.respondWith(networkThenKept(request, url.pathname));
+      return;
+    }
+    const dataOf = url.pathname.endsWith(".data") ? url.pathname.slice(0, -".data".length) : null;
+    if (dataOf !== null && (KEEPABLE_PAGE.test(dataOf) || KEPT_CHECKLIST_PAGE.test(dataOf))) {
       event.respondWith(networkThenKept(request, url.pathname));
       return;
     }

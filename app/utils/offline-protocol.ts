@@ -17,9 +17,17 @@ export type OfflineMessage =
   /** Whether this reader has kept the page. */
   | { type: "is-kept"; reader: ReaderId; page: string }
   /** Send the queued changes now (the page saw the signal come back, or just loaded). */
-  | { type: "replay"; reader: ReaderId };
+  | { type: "replay"; reader: ReaderId }
+  /** This reader's changes to one checklist's items still waiting for the server, oldest first. */
+  | { type: "queued-items"; reader: ReaderId; checklist: number };
 
-export type OfflineReply = { ok: true; kept?: boolean; replayed?: number } | { ok: false; message: string };
+/** A checklist item change as `PATCH /api/checklists/:id/items/:itemId` sends it (design/api.md). */
+export type ItemChange = { checked?: boolean; quantity?: number; note?: string | null };
+export type QueuedItemChange = { itemId: number; change: ItemChange };
+
+export type OfflineReply =
+  | { ok: true; kept?: boolean; replayed?: number; changes?: QueuedItemChange[] }
+  | { ok: false; message: string };
 
 /** The header on the worker's answer to a change it queued for later (HTTP 202). */
 export const QUEUED_HEADER = "X-Torqueleaf-Queued";
@@ -32,6 +40,12 @@ export const QUEUED_CHANGES: { method: string; path: RegExp }[] = [
 
 /** Only guide pages can be kept, by their address without a query: `/guides/:slug`. */
 export const KEEPABLE_PAGE = /^\/guides\/[^/.]+$/;
+
+/** A signed-in reader's checklist page, kept with the guide it was copied from: `/me/checklists/:id`. */
+export const KEPT_CHECKLIST_PAGE = /^\/me\/checklists\/\d{1,10}$/;
+
+/** The queued item change's address: its checklist and item. */
+export const QUEUED_ITEM_PATH = /^\/api\/checklists\/(\d{1,10})\/items\/(\d{1,10})$/;
 
 /** The cache of kept pages for one reader; "anon" for a reader who is not signed in. */
 export const pagesCacheName = (reader: ReaderId) => `tl-pages-${reader === null ? "anon" : `u${reader}`}`;

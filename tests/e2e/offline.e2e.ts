@@ -59,6 +59,24 @@ async function photosShown(page: Page): Promise<{ count: number; broken: string[
   return { count, broken };
 }
 
+/** The changes the worker still has to send (Serwist keeps its queue in the "serwist-background-sync" IndexedDB). */
+const queuedCount = (page: Page) =>
+  page.evaluate(
+    () =>
+      new Promise<number>((resolve, reject) => {
+        const open = indexedDB.open("serwist-background-sync");
+        open.onerror = () => reject(open.error);
+        open.onsuccess = () => {
+          const db = open.result;
+          const stores = [...db.objectStoreNames];
+          if (!stores.length) return resolve(0);
+          const count = db.transaction(stores).objectStore(stores[0]).count();
+          count.onsuccess = () => resolve(count.result);
+          count.onerror = () => reject(count.error);
+        };
+      }),
+  );
+
 const stepDone = (page: Page, n: number) => page.getByRole("button", { name: `Step ${n} done`, exact: true });
 
 for (const viewport of [
@@ -298,4 +316,100 @@ it("a tick queued by one reader is never sent with the session of whoever signs 
   expect(authorTicks.done).not.toContain(position);
   expect(await stepDone(second.page, position + 1).getAttribute("aria-pressed")).toBe("false");
   expect(second.errors).toEqual([]);
+});
+
+it("the checklist page is kept with its guide: ticks and notes made on it without signal survive a reload and reach the server in order", async () => {
+  const browser = await launchBrowser({ viewport: { width: 360, height: 780 } });
+  context = browser;
+  const { page, errors } = await openPage(browser);
+  await signIn(page, "reader@torqueleaf.test");
+  // Start from no checklist of this guide, whatever an earlier run left (GET /api/checklists, design/api.md).
+  const listed = (await (await browser.request.get(`${origin}/api/checklists`)).json()) as {
+    checklists: { id: number; guide: { slug: string } }[];
+  };
+  for (const old of listed.checklists.filter((c) => c.guide.slug === SLUG)) {
+    await browser.request.delete(`${origin}/api/checklists/${old.id}`, { headers: { origin } });
+  }
+
+  await page.goto(GUIDE);
+  await settle(page);
+  await controlled(page);
+  await page.getByRole("button", { name: "Save a parts checklist", exact: true }).click();
+  await page.waitForURL(/\/me\/checklists\/\d+$/);
+  const id = Number(new URL(page.url()).pathname.split("/").at(-1));
+  const read = async () =>
+    (
+      (await (await browser.request.get(`${origin}/api/checklists/${id}`)).json()) as {
+        items: { id: number; name: string; checked: boolean; quantity: number; note: string | null }[];
+      }
+    ).items;
+  const items = await read();
+  expect(items.length).toBeGreaterThanOrEqual(3);
+  expect(items.filter((item) => item.checked)).toEqual([]);
+  const [first, second, third] = items;
+
+  await page.goto(GUIDE);
+  await settle(page);
+  await page.getByRole("button", { name: "Keep on this device", exact: true }).click();
+  await page.getByText("Kept on this device: it opens here without signal.").waitFor();
+
+  await browser.setOffline(true);
+  const checklistPage = `${origin}/me/checklists/${id}`;
+  const opened = await page.goto(checklistPage);
+  expect(opened?.ok()).toBe(true);
+  await settle(page);
+  await expect.poll(() => page.locator("h1").textContent()).toContain("auxiliary lamps on a fused relay harness");
+  const tick = (itemId: number) => page.locator(`li[data-item="${itemId}"]`).getByRole("button", { name: /^Ticked off: / });
+  const row = (itemId: number) => page.locator(`li[data-item="${itemId}"]`);
+  const saved = /No signal: saved on this device, and sent to your account when the signal returns\./;
+
+  await tick(first.id).click();
+  await row(first.id).getByText(saved).waitFor();
+  await tick(second.id).click();
+  await row(second.id).getByText(saved).waitFor();
+  // Ticked and unticked again without signal: the last word is "not ticked".
+  await tick(third.id).click();
+  await row(third.id).getByText(saved).waitFor();
+  await expect.poll(() => tick(third.id).getAttribute("aria-pressed")).toBe("true");
+  await tick(third.id).click();
+  await expect.poll(() => tick(third.id).getAttribute("aria-pressed")).toBe("false");
+  expect(await tick(first.id).getAttribute("aria-pressed")).toBe("true");
+  expect(await tick(second.id).getAttribute("aria-pressed")).toBe("true");
+  await expect.poll(() => page.getByText(/^\d+ of \d+ ticked$/).textContent()).toMatch(/^2 of /);
+  // A quantity and a note changed without signal are queued the same way.
+  await row(second.id).getByText("Quantity and note").click();
+  await row(second.id).getByLabel("Quantity").fill("3");
+  await row(second.id).getByLabel("Note").fill("one spare for the trailer");
+  await row(second.id).getByRole("button", { name: "Save", exact: true }).click();
+  await expect.poll(() => row(second.id).getByText("3×").count()).toBe(1);
+  expect(await queuedCount(page)).toBe(5);
+
+  // Reloaded without signal: the kept page, with the queued changes over it.
+  await page.reload();
+  await settle(page);
+  await expect.poll(() => tick(first.id).getAttribute("aria-pressed")).toBe("true");
+  expect(await tick(second.id).getAttribute("aria-pressed")).toBe("true");
+  expect(await tick(third.id).getAttribute("aria-pressed")).toBe("false");
+  await row(first.id).getByText(saved).waitFor();
+  expect(await row(second.id).getByText("3×").count()).toBe(1);
+  expect(await row(second.id).getByText("one spare for the trailer").count()).toBe(1);
+  await screenshot(page, "offline-checklist-ticked-360");
+  expect((await read()).filter((item) => item.checked)).toEqual([]);
+
+  // The signal returns: the worker sends the four changes in the order they were made.
+  await browser.setOffline(false);
+  await expect.poll(() => queuedCount(page), { timeout: 20_000 }).toBe(0);
+  await expect
+    .poll(async () => (await read()).filter((item) => item.checked).map((item) => item.id), { timeout: 20_000 })
+    .toEqual([first.id, second.id]);
+  expect((await read()).find((item) => item.id === second.id)).toMatchObject({ quantity: 3, note: "one spare for the trailer" });
+  // The page reads its data again and no row says it waits for the signal any more.
+  await expect.poll(() => page.getByText(saved).count(), { timeout: 20_000 }).toBe(0);
+  expect(await tick(first.id).getAttribute("aria-pressed")).toBe("true");
+  expect(await tick(third.id).getAttribute("aria-pressed")).toBe("false");
+
+  await browser.request.delete(`${origin}/api/checklists/${id}`, { headers: { origin } });
+  expect(
+    errors.filter((e) => !/Failed to load resource|ERR_INTERNET_DISCONNECTED|Failed to fetch manifest patches/.test(e)),
+  ).toEqual([]);
 });
