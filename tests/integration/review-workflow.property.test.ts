@@ -364,7 +364,26 @@ describe("the review workflow", () => {
           cmds,
         );
       }),
-      { numRuns: 60 },
+      {
+        numRuns: 60,
+        // Runs given besides the drawn ones, so each state the checks below ask for is reached in
+        // every test run, not only when the draw happens to get there (60 draws once reached no
+        // unpublication): an approval refused while cautions wait, the author's refused, publication,
+        // unpublication, and a revision sent back.
+        examples: [
+          [
+            [
+              new Submit(),
+              new Approve("editor"),
+              new Approve("author"),
+              new SignOff("all"),
+              new Approve("editor"),
+              new Unpublish(),
+            ],
+          ],
+          [[new Submit(), new RequestChanges()]],
+        ],
+      },
     );
     expect(reached.published).toBeGreaterThan(0);
     expect(reached.refusedApproval).toBeGreaterThan(0);
