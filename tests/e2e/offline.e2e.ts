@@ -211,11 +211,22 @@ it("serves the web app manifest with its type and PNG icons a phone can install"
   expect(worker.headers.get("content-type")).toMatch(/javascript/);
 });
 
+/** Start from no checklist of this guide, whatever an earlier test or run left (GET /api/checklists, design/api.md). */
+async function dropChecklistsOfGuide(browser: BrowserContext) {
+  const listed = (await (await browser.request.get(`${origin}/api/checklists`)).json()) as {
+    checklists: { id: number; guide: { slug: string } }[];
+  };
+  for (const old of listed.checklists.filter((c) => c.guide.slug === SLUG)) {
+    await browser.request.delete(`${origin}/api/checklists/${old.id}`, { headers: { origin } });
+  }
+}
+
 it("checklist item ticks made without signal are queued and the server has both once the signal returns", async () => {
   const browser = await launchBrowser({ viewport: { width: 360, height: 780 } });
   context = browser;
   const { page, errors } = await openPage(browser);
   await signIn(page, "reader@torqueleaf.test");
+  await dropChecklistsOfGuide(browser);
   // A parts checklist copied from the guide (POST /api/checklists, design/api.md).
   const created = await browser.request.post(`${origin}/api/checklists`, { headers: { origin }, data: { guideSlug: SLUG } });
   expect(created.status()).toBe(201);
@@ -323,13 +334,7 @@ it("the checklist page is kept with its guide: ticks and notes made on it withou
   context = browser;
   const { page, errors } = await openPage(browser);
   await signIn(page, "reader@torqueleaf.test");
-  // Start from no checklist of this guide, whatever an earlier run left (GET /api/checklists, design/api.md).
-  const listed = (await (await browser.request.get(`${origin}/api/checklists`)).json()) as {
-    checklists: { id: number; guide: { slug: string } }[];
-  };
-  for (const old of listed.checklists.filter((c) => c.guide.slug === SLUG)) {
-    await browser.request.delete(`${origin}/api/checklists/${old.id}`, { headers: { origin } });
-  }
+  await dropChecklistsOfGuide(browser);
 
   await page.goto(GUIDE);
   await settle(page);
@@ -382,7 +387,7 @@ it("the checklist page is kept with its guide: ticks and notes made on it withou
   await row(second.id).getByLabel("Note").fill("one spare for the trailer");
   await row(second.id).getByRole("button", { name: "Save", exact: true }).click();
   await expect.poll(() => row(second.id).getByText("3×").count()).toBe(1);
-  expect(await queuedCount(page)).toBe(5);
+  await expect.poll(() => queuedCount(page)).toBe(5);
 
   // Reloaded without signal: the kept page, with the queued changes over it.
   await page.reload();

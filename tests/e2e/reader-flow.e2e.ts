@@ -176,6 +176,8 @@ for (const size of SIZES) {
       await page.emulateMedia({ media: "screen" });
 
       expect(errors).toEqual([]);
+      // The demo account goes back to no vehicle and no checklist for the test files after this one.
+      await clearReaderRecords(page);
     });
   });
 }
