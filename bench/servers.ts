@@ -65,7 +65,9 @@ export async function buildIfStale(
   const newest = newestMtime(inputs);
   const fresh = bundles.every((bundle) => existsSync(join(cwd, bundle)) && statSync(join(cwd, bundle)).mtimeMs > newest);
   if (!force && fresh) return false;
-  const scripts = JSON.parse(readFileSync(join(cwd, "package.json"), "utf8")).scripts ?? {};
+  // bench/bare has no package.json of its own: it builds with the project's react-router.
+  const manifest = join(cwd, "package.json");
+  const scripts = existsSync(manifest) ? (JSON.parse(readFileSync(manifest, "utf8")).scripts ?? {}) : {};
   const env = { ...process.env, NODE_ENV: "production" };
   if (scripts.build) await run("npm", ["run", "build"], { cwd, env });
   else await run(join(BIN, "react-router"), ["build"], { cwd, env });
