@@ -305,24 +305,8 @@ it("a tick queued by one reader is never sent with the session of whoever signs 
   await second.page.goto(GUIDE);
   await settle(second.page);
   await expect.poll(() => second.page.getByRole("progressbar").getAttribute("aria-valuetext")).toMatch(/ of \d+ steps done$/);
-  // The worker has dealt with its queue (Serwist keeps it in the "serwist-background-sync" IndexedDB): nothing is left to send.
-  const queued = () =>
-    second.page.evaluate(
-      () =>
-        new Promise<number>((resolve, reject) => {
-          const open = indexedDB.open("serwist-background-sync");
-          open.onerror = () => reject(open.error);
-          open.onsuccess = () => {
-            const db = open.result;
-            const stores = [...db.objectStoreNames];
-            if (!stores.length) return resolve(0);
-            const count = db.transaction(stores).objectStore(stores[0]).count();
-            count.onsuccess = () => resolve(count.result);
-            count.onerror = () => reject(count.error);
-          };
-        }),
-    );
-  await expect.poll(queued, { timeout: 20_000 }).toBe(0);
+  // The worker has dealt with its queue: nothing is left to send.
+  await expect.poll(() => queuedCount(second.page), { timeout: 20_000 }).toBe(0);
   const authorTicks = (await (await browser.request.get(TICKS)).json()) as { done: number[] };
   expect(authorTicks.done).not.toContain(position);
   expect(await stepDone(second.page, position + 1).getAttribute("aria-pressed")).toBe("false");
