@@ -20,3 +20,24 @@ export function DocumentHtml({ id, html, className }: { id: string; html: string
   // biome-ignore lint/security/noDangerouslySetInnerHtml: rendered from validated rich-text JSON when the revision was saved
   return <div id={id} className={className} dangerouslySetInnerHTML={{ __html: markup }} />;
 }
+
+/** The JSON a document carries in a data block (`DocumentJson`), under the element id it has there. */
+export function useDocumentJson(id: string, json: string | null): string {
+  const fragments = useContext(DocumentFragments);
+  if (json !== null) return json;
+  const kept = fragments?.get(id);
+  if (kept !== undefined) return kept;
+  return typeof document === "undefined" ? "null" : (document.getElementById(id)?.textContent ?? "null");
+}
+
+/**
+ * A page's data as a JSON data block, once in the document instead of inside React Router's
+ * hand-off script (where it would be escaped twice and encoded again on every request). The JSON
+ * must have every `<` written as `\u003c`, so no text in it can end the element. Browsers do not
+ * run a data block, so it needs no nonce.
+ */
+export function DocumentJson({ id }: { id: string }) {
+  const json = useDocumentJson(id, null);
+  // biome-ignore lint/security/noDangerouslySetInnerHtml: JSON with every "<" escaped (see above)
+  return <script type="application/json" id={id} dangerouslySetInnerHTML={{ __html: json }} />;
+}

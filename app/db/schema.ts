@@ -189,8 +189,9 @@ export const variants = sqliteTable(
 
 /**
  * A counter per kind of content that readers' pages are built from, raised by triggers on every
- * change to it (migration 0008): "catalogue" (makes, models, generations, variants) and "guides"
- * (guides, and authors' names). Caches of those pages compare one row instead of the content.
+ * change to it (migrations 0008 and 0011): "catalogue" (makes, models, generations, variants),
+ * "guides" (guides, and authors' names and bios) and "reports" (readers' fitment reports). Caches
+ * of those pages compare these rows instead of the content.
  */
 export const contentStamps = sqliteTable("content_stamps", {
   name: text().primaryKey(),

@@ -10,8 +10,13 @@ import { type Actor, can } from "~/utils/permissions";
 import { FITMENT_STATUSES, type FitmentStatus } from "~/utils/vocab";
 import { auditInsert } from "./audit.server";
 import { outboxInsert } from "./outbox.server";
+import { BoundedCache } from "~/utils/bounded-cache";
+import type { ContentStamps } from "./content-stamps.server";
 import { HIDE_REASON_MAX, REPORT_NOTE_MAX } from "./reader-limits";
 import { findOwnVehicle, variantFacts, variantIdField, vehicleIdField, vehicleLabel } from "./vehicles.server";
+
+/** Guides whose public reports are kept: every guide a busy Library's readers open. */
+const PUBLIC_REPORTS_KEPT = 1024;
 
 /** An optional id: a form's empty choice and JSON's null mean none. */
 const optionalId = <T extends z.ZodType>(field: T) =>
@@ -199,6 +204,34 @@ export async function shownReports(db: Db, guideId: number, limit = 20): Promise
     note: r.note,
     at: (r.updatedAt ?? r.createdAt).toISOString(),
   }));
+}
+
+/** What every reader sees of a guide's reports: the tally per variant (with its vehicle's name) and the newest notes. */
+export type PublicReports = { tallies: (FitmentTally & { vehicle: string })[]; reports: ShownReport[] };
+
+/** Guides' public reports, by guide and the reports and catalogue stamps they were read at. */
+const publicReportsKept = new BoundedCache<string, PublicReports>(PUBLIC_REPORTS_KEPT);
+
+/**
+ * A guide's public reports, read once per reports stamp (a report written, edited or hidden raises
+ * it, migration 0011) and catalogue stamp (the vehicles' names): a guide page then asks nothing of
+ * the reports table. `stamps`: read by the caller for this request, before this.
+ */
+export async function publicReports(db: Db, guideId: number, stamps: ContentStamps): Promise<PublicReports> {
+  const key = `${guideId}:${stamps.reports}:${stamps.catalogue}`;
+  const kept = publicReportsKept.get(key);
+  if (kept) return kept;
+  const [tallies, reports] = await Promise.all([fitmentTallies(db, guideId), shownReports(db, guideId)]);
+  const names = await variantFacts(
+    db,
+    tallies.map((t) => t.variantId),
+  );
+  const found = {
+    tallies: tallies.map((t) => ({ ...t, vehicle: names.get(t.variantId)?.label ?? "A vehicle" })),
+    reports,
+  };
+  publicReportsKept.set(key, found);
+  return found;
 }
 
 /** The reader's own reports on a guide, to fill the form when they edit one. */

@@ -12,7 +12,6 @@ import {
   type LibraryRow,
   libraryAnswer,
   PAGE_SIZE,
-  readReportsStamp,
   relaxFilters,
   SEARCH_WEIGHTS,
   usableQuery,
@@ -56,7 +55,7 @@ type Index = {
   /** Guides by time, shortest first, ties newest first: the "shortest" order. */
   byMinutes: Int32Array;
   /** Guides by readers' "fits" reports, most first, ties newest first, for a reports stamp. */
-  byReports: { stamp: string; order: Int32Array } | null;
+  byReports: { stamp: number; order: Int32Array } | null;
   generations: Generation[];
   years: { first: number; last: number } | null;
   /** Working arrays of one query, reused (a query fills and reads them without awaiting). */
@@ -230,8 +229,7 @@ const hasVehicleFilter = (query: LibraryQuery) =>
   !!(query.make || query.model || query.generation || query.year || query.powertrain || query.drivetrain || query.fits);
 
 /** The guides in "most reported fits" order, made again only when the reports have changed. */
-async function reportsOrder(db: Db, index: Index): Promise<Int32Array> {
-  const stamp = await readReportsStamp(db);
+async function reportsOrder(db: Db, index: Index, stamp: number): Promise<Int32Array> {
   if (index.byReports?.stamp === stamp) return index.byReports.order;
   const rows = await db.all<{ guideId: number; n: number }>(sql`
     SELECT guide_id AS guideId, count(*) AS n FROM fitment_reports
@@ -314,18 +312,20 @@ async function searchHits(db: Db, index: Index, match: string): Promise<SearchHi
 
 /** `listPublishedGuides`, answered from the index (`stamps`: read by the caller for this request). */
 export async function listFromIndex(db: Db, asked: LibraryQuery, stamps?: ContentStamps) {
-  const index = await indexFor(db, stamps ?? (await readContentStamps(db)));
-  return answerFromIndex(db, index, asked, false);
+  const now = stamps ?? (await readContentStamps(db));
+  return answerFromIndex(db, await indexFor(db, now), now.reports, asked, false);
 }
 
-async function answerFromIndex(db: Db, index: Index, asked: LibraryQuery, totalOnly: true): Promise<number>;
+/** `reports`: the reports stamp read for this request, for the "most reported fits" order. */
+async function answerFromIndex(db: Db, index: Index, reports: number, asked: LibraryQuery, totalOnly: true): Promise<number>;
 async function answerFromIndex(
   db: Db,
   index: Index,
+  reports: number,
   asked: LibraryQuery,
   totalOnly: false,
 ): Promise<Awaited<ReturnType<typeof libraryAnswer>>>;
-async function answerFromIndex(db: Db, index: Index, asked: LibraryQuery, totalOnly: boolean) {
+async function answerFromIndex(db: Db, index: Index, reports: number, asked: LibraryQuery, totalOnly: boolean) {
   const { query, problems } = usableQuery(asked, index.years);
   const { guides, guideCategory, guideDifficulty } = index;
   const wantCategory = query.category ? CATEGORIES.indexOf(query.category) : -1;
@@ -420,7 +420,7 @@ async function answerFromIndex(db: Db, index: Index, asked: LibraryQuery, totalO
     query.sort === "shortest"
       ? pageInOrder(index, matching, index.byMinutes, offset)
       : query.sort === "fits"
-        ? pageInOrder(index, matching, await reportsOrder(db, index), offset)
+        ? pageInOrder(index, matching, await reportsOrder(db, index, reports), offset)
         : r
           ? firstInOrder(matching, offset + PAGE_SIZE, (a, b) => r[a] < r[b] || (r[a] === r[b] && a < b)).slice(offset)
           : matching.slice(offset, offset + PAGE_SIZE);
@@ -441,7 +441,7 @@ async function answerFromIndex(db: Db, index: Index, asked: LibraryQuery, totalO
         vehicle: sortedCounts(vehicleCounts),
       },
       problems,
-      relax: await relaxFilters(query, total, (without) => answerFromIndex(db, index, without, true)),
+      relax: await relaxFilters(query, total, (without) => answerFromIndex(db, index, reports, without, true)),
     },
     (revisionIds) => keptFitment(db, index, revisionIds),
   );

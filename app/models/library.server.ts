@@ -6,7 +6,7 @@ import { evaluateCallout, storedCallout } from "~/engine/callouts";
 import type { Storage } from "~/services/storage.server";
 import { BoundedCache } from "~/utils/bounded-cache";
 import { CATEGORIES, DRIVETRAINS, POWERTRAINS } from "~/utils/vocab";
-import { readContentStamps } from "./content-stamps.server";
+import { type ContentStamps, readContentStamps } from "./content-stamps.server";
 import { type LoadedRevision, loadRevision, partsAndTools } from "./guides.server";
 import { publicVariants } from "./media.server";
 
@@ -333,18 +333,6 @@ function listOrder(query: LibraryQuery): SQL {
   return newest;
 }
 
-/**
- * Readers' fitment reports change without touching a guide, so what is computed from them is kept
- * by this stamp: how many reports there are, the newest, the last change, how many are hidden and
- * how many count as "fits".
- */
-export async function readReportsStamp(db: Db): Promise<string> {
-  const [row] = await db.all<Record<string, number | null>>(sql`
-    SELECT count(*) AS n, max(id) AS last, max(updated_at) AS touched, count(hidden_at) AS hidden,
-      sum(status = 'fits' AND hidden_at IS NULL) AS fits FROM fitment_reports`);
-  return [row?.n, row?.last, row?.touched, row?.hidden, row?.fits].map((v) => Number(v ?? 0)).join(".");
-}
-
 /** The filters a reader can take away from an empty list, one at a time, in the order the page shows them. */
 export const RELAXABLE = ["q", "vehicle", "year", "fits", "powertrain", "drivetrain", "category", "difficulty"] as const;
 export type Relaxable = (typeof RELAXABLE)[number];
@@ -584,8 +572,8 @@ async function publishedHistory(db: Db, guideId: number) {
 /** A guide's history changes only when another revision is published, so it is kept by the published revision's id. */
 const histories = new BoundedCache<number, Awaited<ReturnType<typeof publishedHistory>>>(REVISION_VIEWS_KEPT);
 
-/** A published guide as the reader sees it, with every callout evaluated by the engine. */
-export async function getPublishedGuide(db: Db, storage: Pick<Storage, "publicUrl">, slug: string) {
+/** The guide's row by slug, with its author, found for a guides stamp: the same until that moves. */
+async function guideBySlug(db: Db, slug: string) {
   const [guide] = await db
     .select({
       id: guides.id,
@@ -598,8 +586,26 @@ export async function getPublishedGuide(db: Db, storage: Pick<Storage, "publicUr
     .from(guides)
     .innerJoin(users, eq(users.id, guides.authorId))
     .where(eq(guides.slug, slug));
+  return guide;
+}
+
+/** Published guides' rows, by guides stamp and slug; slugs that find none are not kept. */
+const guideRows = new BoundedCache<string, NonNullable<Awaited<ReturnType<typeof guideBySlug>>>>(REVISION_VIEWS_KEPT);
+
+/**
+ * A published guide as the reader sees it, with every callout evaluated by the engine
+ * (`stamps`: read by the caller for this request, before anything it shows).
+ */
+export async function getPublishedGuide(db: Db, storage: Pick<Storage, "publicUrl">, slug: string, stamps?: ContentStamps) {
+  const now = stamps ?? (await readContentStamps(db));
+  const rowKey = `${now.guides}:${slug}`;
+  let guide = guideRows.get(rowKey);
+  if (!guide) {
+    guide = await guideBySlug(db, slug);
+    if (guide?.state === "published") guideRows.set(rowKey, guide);
+  }
   if (guide?.state !== "published" || !guide.publishedRevisionId) return null;
-  const key = `${guide.publishedRevisionId}:${(await readContentStamps(db)).catalogue}`;
+  const key = `${guide.publishedRevisionId}:${now.catalogue}`;
   let view = revisionViews.get(key);
   if (!view) {
     view = await revisionView(db, storage, guide.publishedRevisionId);

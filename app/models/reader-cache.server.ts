@@ -3,7 +3,7 @@ import { BoundedCache } from "~/utils/bounded-cache";
 import { type CatalogueTree, getCatalogue } from "./catalogue.server";
 import { type ContentStamps, readContentStamps } from "./content-stamps.server";
 import { listFromIndex } from "./library-index.server";
-import { type LibraryQuery, readReportsStamp } from "./library.server";
+import type { LibraryQuery } from "./library.server";
 
 /**
  * What every reader sees alike, computed once per content stamp: the catalogue, and the Library's
@@ -33,8 +33,8 @@ const libraryAnswers = new BoundedCache<string, LibraryAnswer>(LIBRARY_ANSWERS_K
 /** The Library's answer (from its in-memory index), kept per query and content stamp. */
 export async function readLibrary(db: Db, query: LibraryQuery, stamps?: ContentStamps): Promise<LibraryAnswer> {
   const now = stamps ?? (await readContentStamps(db));
-  // The "most reported fits" order changes with readers' reports too, which no content stamp follows.
-  const reports = query.sort === "fits" ? await readReportsStamp(db) : "";
+  // The "most reported fits" order changes with readers' reports too.
+  const reports = query.sort === "fits" ? now.reports : "";
   const key = `${now.guides}.${now.catalogue}.${reports}:${JSON.stringify(query)}`;
   let answer = libraryAnswers.get(key);
   if (!answer) {

@@ -1,6 +1,7 @@
 import type { Db } from "~/db/client.server";
 import type { PickerOptions } from "~/components/vehicle-picker";
 import { openLastYear } from "./vehicles.server";
+import type { ContentStamps } from "./content-stamps.server";
 import { readCatalogue } from "./reader-cache.server";
 
 /** The picker's steps as the address carries them: `vmake`, `vmodel`, `vgen` (catalogue ids). */
@@ -17,8 +18,8 @@ const idParam = (params: URLSearchParams, name: string) => {
  * does not belong to the one before it (the make was changed) is dropped, and so are those after it.
  * Retired variants are not offered.
  */
-export async function pickerOptions(db: Db, params: URLSearchParams): Promise<PickerOptions> {
-  const tree = await readCatalogue(db);
+export async function pickerOptions(db: Db, params: URLSearchParams, stamps?: ContentStamps): Promise<PickerOptions> {
+  const tree = await readCatalogue(db, stamps);
   const make = tree.find((m) => m.id === idParam(params, "vmake"));
   const model = make?.models.find((m) => m.id === idParam(params, "vmodel"));
   const generation = model?.generations.find((g) => g.id === idParam(params, "vgen"));

@@ -1,5 +1,6 @@
 import { getDb } from "~/db/client.server";
-import { fitmentTallies } from "~/models/fitment-reports.server";
+import { readContentStamps } from "~/models/content-stamps.server";
+import { publicReports } from "~/models/fitment-reports.server";
 import { getPublishedGuide } from "~/models/library.server";
 import { unpublishedGuide } from "~/models/review-desk.server";
 import { getStorage } from "~/services/storage.server";
@@ -9,7 +10,8 @@ import type { Route } from "./+types/api.guide";
 
 export const loader = apiHandler(async ({ params, request }: Route.LoaderArgs) => {
   const db = await getDb();
-  const guide = await getPublishedGuide(db, getStorage(), params.slug);
+  const stamps = await readContentStamps(db);
+  const guide = await getPublishedGuide(db, getStorage(), params.slug, stamps);
   if (!guide) {
     const gone = await unpublishedGuide(db, params.slug);
     if (gone) {
@@ -22,7 +24,8 @@ export const loader = apiHandler(async ({ params, request }: Route.LoaderArgs) =
   }
   const { id, ...rest } = guide;
   // Readers' reports per variant, hidden ones not counted; a new report changes the answer's ETag.
-  const fitmentReports = await fitmentTallies(db, id);
+  const { tallies } = await publicReports(db, id, stamps);
+  const fitmentReports = tallies.map(({ vehicle: _name, ...tally }) => tally);
   return publicJson(request, {
     ...rest,
     steps: rest.steps.map(({ callouts, ...step }) => ({

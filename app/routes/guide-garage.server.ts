@@ -1,30 +1,27 @@
 import type { Db } from "~/db/client.server";
-import { fitmentTallies, ownReports, shownReports } from "~/models/fitment-reports.server";
+import type { ContentStamps } from "~/models/content-stamps.server";
+import { ownReports, publicReports } from "~/models/fitment-reports.server";
 import { PICKER_PARAMS, pickerOptions } from "~/models/vehicle-picker.server";
-import { currentVehicle, findSameVehicle, listVehicles, pickedVehicle, variantFacts } from "~/models/vehicles.server";
+import { currentVehicle, findSameVehicle, listVehicles, pickedVehicle } from "~/models/vehicles.server";
 import { getUser } from "~/services/auth/session.server";
 import { can } from "~/utils/permissions";
 
 /**
  * What the guide page shows about the reader's vehicles: the current vehicle (or the picker), the
  * readers' fitment reports and their tally per variant, and for a signed-in reader their vehicles and
- * own reports for the report form. Everything here is read per request: a new report shows at once,
- * and the page's data (the document cache's key) changes with it.
+ * own reports for the report form. The readers' reports are kept by the reports stamp read for this
+ * request (`stamps`): a new report raises it, so it shows at once, and the page's data (the document
+ * cache's key) changes with it; the reader's own vehicles and reports are read per request.
  */
-export async function guideGarage(args: { request: Request; context?: unknown }, db: Db, guideId: number) {
+export async function guideGarage(args: { request: Request; context?: unknown }, db: Db, guideId: number, stamps: ContentStamps) {
   const url = new URL(args.request.url);
-  const [user, vehicle, tallies, reports] = await Promise.all([
+  const [user, vehicle, { tallies, reports }] = await Promise.all([
     getUser(args),
     currentVehicle(args, db),
-    fitmentTallies(db, guideId),
-    shownReports(db, guideId),
+    publicReports(db, guideId, stamps),
   ]);
   const picking = url.searchParams.has("pick") || PICKER_PARAMS.some((p) => url.searchParams.has(p));
-  const picker = !vehicle || picking ? await pickerOptions(db, url.searchParams) : null;
-  const names = await variantFacts(
-    db,
-    tallies.map((t) => t.variantId),
-  );
+  const picker = !vehicle || picking ? await pickerOptions(db, url.searchParams, stamps) : null;
   const mine = user
     ? await Promise.all([listVehicles(db, user.id), ownReports(db, user.id, guideId), pickedVehicle(args.request, db)])
     : null;
@@ -39,7 +36,7 @@ export async function guideGarage(args: { request: Request; context?: unknown },
     vehicle,
     picker,
     offer,
-    tallies: tallies.map((t) => ({ ...t, vehicle: names.get(t.variantId)?.label ?? "A vehicle" })),
+    tallies,
     reports,
     myVehicles:
       mine?.[0].map(({ id, variantId, label, nickname, current }) => ({ id, variantId, label, nickname, current })) ?? [],

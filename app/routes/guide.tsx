@@ -1,9 +1,11 @@
 import { FitmentReports } from "~/components/fitment-reports";
+import { DocumentJson, useDocumentJson } from "~/components/document-html";
 import { GuideArticle, type ShownGuide, stepBodyId } from "~/components/guide-article";
 import { KeepOnDevice } from "~/components/keep-on-device";
 import { GuideVehicleLine } from "~/components/vehicle-fitment-line";
 import { StepDoneTick, WorkThroughProgress, WorkThroughProvider } from "~/components/work-through";
 import { getDb } from "~/db/client.server";
+import { readContentStamps } from "~/models/content-stamps.server";
 import { getPublishedGuide, type PublishedGuide } from "~/models/library.server";
 import { unpublishedGuide } from "~/models/review-desk.server";
 import { documentFragmentsContext } from "~/services/http/document-fragments.server";
@@ -54,6 +56,7 @@ function stepHtmlShown(html: string) {
 const guideJson = new WeakMap<object, Map<string, string>>();
 
 function shownGuideJson(found: PublishedGuide, document: boolean, bodies: string[]): string {
+  // A document's JSON goes into a data block: no "<" in it may end the element.
   const row = JSON.stringify([document, found.id, found.slug, found.author, found.publishedAt]);
   const byRow = guideJson.get(found.steps) ?? new Map<string, string>();
   guideJson.set(found.steps, byRow);
@@ -63,10 +66,24 @@ function shownGuideJson(found: PublishedGuide, document: boolean, bodies: string
       ...found,
       steps: found.steps.map(({ html: _html, ...step }, i) => ({ ...step, html: document ? undefined : bodies[i] })),
     };
-    json = JSON.stringify(guide);
+    json = document ? JSON.stringify(guide).replaceAll("<", "\\u003c") : JSON.stringify(guide);
     byRow.set(row, json);
   }
   return json;
+}
+
+/** The data block a document's guide comes in. */
+const GUIDE_JSON_ID = "guide-data";
+
+/** What the page's `meta` needs of the guide: a document's data carries no guide. */
+function guideHead(found: PublishedGuide) {
+  return {
+    title: found.title,
+    summary: found.summary,
+    category: found.category,
+    publishedAt: found.publishedAt?.toISOString() ?? null,
+    revisionPublishedAt: found.history?.find((h) => h.number === found.revision.number)?.publishedAt?.toISOString() ?? null,
+  };
 }
 
 let lastRead: { json: string; guide: ShownGuide } | undefined;
@@ -94,16 +111,26 @@ function unpublishedMessage(gone: { title: string; reason: string | null; at: Da
 
 export async function loader({ params, request, context }: Route.LoaderArgs) {
   const db = await getDb();
-  const found = await getPublishedGuide(db, getStorage(), params.slug);
+  // Read once, before anything the page shows: what is kept is looked up by these.
+  const stamps = await readContentStamps(db);
+  const found = await getPublishedGuide(db, getStorage(), params.slug, stamps);
   if (!found) {
     const gone = await unpublishedGuide(db, params.slug);
     if (gone) throw pageErrorResponse(new AppError(410, "unpublished", unpublishedMessage(gone)));
     throw pageErrorResponse(notFound(`A published guide called "${params.slug}"`));
   }
-  // The steps' HTML goes into the markup once; a document's data leaves it out (DocumentHtml).
+  // The steps' HTML goes into the markup once; a document's data leaves it out (DocumentHtml). The
+  // rest of the guide goes into the document as a data block (DocumentJson); a navigation's data
+  // carries it all.
   const bodies = found.steps.map((step) => stepHtmlShown(step.html));
   const document = isDocumentRequest(request);
-  if (document) context.set(documentFragmentsContext, new Map(bodies.map((html, i) => [stepBodyId(i), html])));
+  const json = shownGuideJson(found, document, bodies);
+  if (document) {
+    context.set(
+      documentFragmentsContext,
+      new Map([...bodies.map((html, i) => [stepBodyId(i), html] as const), [GUIDE_JSON_ID, json]]),
+    );
+  }
   // Addresses for the canonical link, Open Graph and the printed page come from the configured public
   // origin, never from the request's Host header.
   const origin = env().APP_ORIGIN;
@@ -111,12 +138,13 @@ export async function loader({ params, request, context }: Route.LoaderArgs) {
   const photo = found.steps.flatMap((s) => s.photos)[0];
   const image = photo ? shareImage(photo, origin) : null;
   return {
-    guide: shownGuideJson(found, document, bodies),
+    guide: document ? null : json,
+    head: guideHead(found),
     url,
     image,
     print: new URL(request.url).searchParams.get("print") === "1",
     // The reader's vehicle and readers' fitment reports: per request, never part of the kept guide JSON.
-    garage: await guideGarage({ request, context }, db, found.id),
+    garage: await guideGarage({ request, context }, db, found.id, stamps),
   };
 }
 
@@ -125,9 +153,9 @@ export const handle = READER_PAGE;
 
 export const meta: Route.MetaFunction = ({ data }) => {
   if (!data) return [{ title: "Guide not found · Torqueleaf" }];
-  const { url, image } = data;
-  const guide = readGuide(data.guide);
-  const revisionPublished = guide.history?.find((h) => h.number === guide.revision.number)?.publishedAt ?? null;
+  const { url, image, head: guide } = data;
+  const revisionPublished = guide.revisionPublishedAt ? new Date(guide.revisionPublishedAt) : null;
+  const publishedAt = guide.publishedAt ? new Date(guide.publishedAt) : null;
   return [
     { title: `${guide.title} · Torqueleaf` },
     { name: "description", content: guide.summary },
@@ -139,7 +167,7 @@ export const meta: Route.MetaFunction = ({ data }) => {
     { property: "og:description", content: guide.summary },
     { property: "og:url", content: url },
     // The article's own properties (ogp.me, "article" type): when it came out, when this revision did, its section.
-    ...(guide.publishedAt ? [{ property: "article:published_time", content: guide.publishedAt.toISOString() }] : []),
+    ...(publishedAt ? [{ property: "article:published_time", content: publishedAt.toISOString() }] : []),
     ...(revisionPublished ? [{ property: "article:modified_time", content: revisionPublished.toISOString() }] : []),
     { property: "article:section", content: CATEGORY_LABELS[guide.category as Category] },
     ...(image
@@ -156,7 +184,7 @@ export const meta: Route.MetaFunction = ({ data }) => {
 
 export default function GuidePage({ loaderData }: Route.ComponentProps) {
   const { url, print, garage } = loaderData;
-  const guide = readGuide(loaderData.guide);
+  const guide = readGuide(useDocumentJson(GUIDE_JSON_ID, loaderData.guide));
   const work = print
     ? undefined
     : {
@@ -167,6 +195,7 @@ export default function GuidePage({ loaderData }: Route.ComponentProps) {
   return (
     <WorkThroughProvider slug={guide.slug} revision={guide.revision.number} stepCount={guide.steps.length}>
       {print ? null : <GuideVehicleLine garage={garage} fitment={guide.fitment} slug={guide.slug} />}
+      {loaderData.guide === null ? <DocumentJson id={GUIDE_JSON_ID} /> : null}
       <GuideArticle guide={guide} url={url} print={print} work={work} />
       {print ? null : <FitmentReports garage={garage} slug={guide.slug} />}
     </WorkThroughProvider>

@@ -73,8 +73,11 @@ describe("a page for a reader who is not signed in", () => {
     expect(htmlA).toContain(`nonce="${nonceA}"`);
     expect(htmlA).not.toContain(`nonce="${nonceB}"`);
     expect(htmlB).toContain(`nonce="${nonceB}"`);
-    // Every script carries the answer's own nonce, none the one kept with the markup.
-    const scripts = [...htmlB.matchAll(/<script\b[^>]*>/g)].map(([tag]) => tag);
+    // Every script carries the answer's own nonce, none the one kept with the markup. A JSON data
+    // block is not a script the browser runs (HTML Living Standard §4.12.1.1), so it needs none.
+    const scripts = [...htmlB.matchAll(/<script\b[^>]*>/g)]
+      .map(([tag]) => tag)
+      .filter((tag) => !tag.includes('type="application/json"'));
     expect(scripts.length).toBeGreaterThan(0);
     for (const tag of scripts) expect(tag.includes(`nonce="${nonceB}"`) || / src="/.test(tag)).toBe(true);
     expect(a.headers.get("etag")).toBe(b.headers.get("etag"));
@@ -90,6 +93,25 @@ describe("a page for a reader who is not signed in", () => {
     // A navigation in the browser gets the text in the data, since it has no markup yet.
     const data = await (await client.get(`${GUIDE}.data`)).text();
     expect(data).toContain(phrase);
+  });
+
+  it("carries the guide's data once: in a data block the browser does not run, not in the hand-off script", async () => {
+    const api = (await (await client.get(`/api/guides/${SLUG}`)).json()) as { title: string; parts: { name: string }[] };
+    const part = api.parts[0]?.name ?? "";
+    expect(part.length).toBeGreaterThan(3);
+    const html = await (await client.get(GUIDE)).text();
+    const block = /<script type="application\/json" id="guide-data">([\s\S]*?)<\/script>/.exec(html)?.[1] ?? "";
+    // No "<" in the block: nothing in it can end the element early (HTML Living Standard §4.12.1.3).
+    expect(block).not.toContain("<");
+    const guide = JSON.parse(block) as { title: string; parts: { name: string }[] };
+    expect(guide.title).toBe(api.title);
+    expect(guide.parts.map((p) => p.name)).toEqual(api.parts.map((p) => p.name));
+    const handOff = [...html.matchAll(/<script[^>]*>([\s\S]*?)<\/script>/g)]
+      .map((m) => m[1])
+      .filter((body) => body.includes("__reactRouterContext"))
+      .join("\n");
+    expect(handOff.length).toBeGreaterThan(0);
+    expect(handOff).not.toContain(part);
   });
 });
 
@@ -151,6 +173,35 @@ describe("a change to the content", () => {
     expect(await (await client.get(GUIDE)).text()).toContain("Renamedtrim");
     expect(JSON.stringify(await (await client.get(`/api/guides/${SLUG}`)).json())).toContain("Renamedtrim");
     expect(JSON.stringify(await (await client.get("/api/catalogue")).json())).toContain("Renamedtrim");
+  });
+
+  it("shows at once on the guide page and in the API: an author's new bio, a reader's report written and hidden", async () => {
+    await writeBehindTheApp(
+      "UPDATE users SET bio = 'Rebuilt bio Vaduz' WHERE id = (SELECT author_id FROM guides WHERE slug = ?)",
+      [SLUG],
+    );
+    expect(await (await client.get(GUIDE)).text()).toContain("Rebuilt bio Vaduz");
+
+    const tally = async () =>
+      (
+        (await (await client.get(`/api/guides/${SLUG}`)).json()) as { fitmentReports: { doesNotFit: number }[] }
+      ).fitmentReports.reduce((n, t) => n + t.doesNotFit, 0);
+    const before = await tally();
+    await writeBehindTheApp(
+      `INSERT INTO fitment_reports (guide_id, variant_id, user_id, status, note, created_at, updated_at)
+       SELECT g.id, f.variant_id, (SELECT id FROM users WHERE email = 'editor@torqueleaf.test'), 'does-not-fit',
+         'Bracket clashed Quillmark', 1796300000000, 1796300000000
+       FROM guides g JOIN fitment f ON f.revision_id = g.published_revision_id WHERE g.slug = ? ORDER BY f.variant_id LIMIT 1`,
+      [SLUG],
+    );
+    expect(await (await client.get(GUIDE)).text()).toContain("Bracket clashed Quillmark");
+    expect(await tally()).toBe(before + 1);
+
+    await writeBehindTheApp("UPDATE fitment_reports SET hidden_at = 1796300001000, hidden_reason = 'test' WHERE note = ?", [
+      "Bracket clashed Quillmark",
+    ]);
+    expect(await (await client.get(GUIDE)).text()).not.toContain("Bracket clashed Quillmark");
+    expect(await tally()).toBe(before);
   });
 
   it("shows at once in the Library", async () => {

@@ -60,13 +60,37 @@ export function documentKey(
     .update("\n")
     .update(request.url)
     .update("\n")
-    .update(JSON.stringify(state.loaderData));
+    .update(JSON.stringify(state.loaderData, withLongStringsDigested));
   // What the markup carries beside the data (document-fragments.server.ts) decides it as much.
-  for (const [id, html] of fragments ?? []) hash.update(`\n${id}\n`).update(html);
+  for (const [id, html] of fragments ?? []) hash.update(`\n${id}\n`).update(digestOf(html));
   const digest = hash.digest("base64url").slice(0, 32);
   // Weak: the markup differs by its nonce from one answer to the next, and means the same.
   return { key: digest, etag: `W/"${digest}"` };
 }
+
+/**
+ * Strings this long (a guide's JSON, a step's HTML) stand in the key by their own digest, made once
+ * per string: they come from the caches that made them, the same string every time, so a page's key
+ * costs a lookup instead of escaping and hashing some 100 KB on every request.
+ */
+const LONG_STRING = 2048;
+const LONG_STRING_BYTES_KEPT = 16 * 1024 * 1024;
+const longStringDigests = new BoundedCache<string, { digest: string; length: number }>(
+  LONG_STRING_BYTES_KEPT,
+  (kept) => kept.length,
+);
+
+function digestOf(text: string): string {
+  if (text.length < LONG_STRING) return text;
+  let kept = longStringDigests.get(text);
+  if (!kept) {
+    kept = { digest: `\u0000sha256:${createHash("sha256").update(text).digest("base64url")}`, length: text.length };
+    longStringDigests.set(text, kept);
+  }
+  return kept.digest;
+}
+
+const withLongStringsDigested = (_key: string, value: unknown) => (typeof value === "string" ? digestOf(value) : value);
 
 /** The kept markup for `key` with this answer's nonce in place of the stand-in, or undefined. */
 export function keptDocument(key: string, nonce: string): Uint8Array<ArrayBuffer> | undefined {
