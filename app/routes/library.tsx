@@ -1,9 +1,14 @@
 import { type FormEvent, useEffect, useRef, useState } from "react";
 import { Form, Link, redirect, useLocation, useNavigate, useNavigation } from "react-router";
+import { DocumentJson, useDocumentJson } from "~/components/document-html";
 import { FitmentSummary } from "~/components/fitment";
+import { documentFragmentsContext } from "~/services/http/document-fragments.server";
+import { isDocumentRequest } from "~/services/http/request-kind.server";
 import { SafetyNotice } from "~/components/chrome";
 import { formatMinutes } from "~/utils/format";
-import { getDb } from "~/db/client.server";
+import { type Db, getDb } from "~/db/client.server";
+import { BoundedCache } from "~/utils/bounded-cache";
+import { jsonReader } from "~/utils/page-json";
 import { yearsLabel } from "~/models/catalogue.server";
 import {
   type LibraryQuery,
@@ -13,7 +18,7 @@ import {
   withoutEmptyParams,
   withoutFilter,
 } from "~/models/library.server";
-import { readContentStamps } from "~/models/content-stamps.server";
+import { type ContentStamps, readContentStamps } from "~/models/content-stamps.server";
 import { readCatalogue, readLibrary } from "~/models/reader-cache.server";
 import type { CatalogueTree } from "~/models/catalogue.server";
 import {
@@ -63,6 +68,36 @@ export async function loader({ request, context }: Route.LoaderArgs) {
   // The variant the cards are judged against: the one the address names, else the reader's current
   // vehicle (a signed-in reader's, or a visitor's picked one; either makes the page private).
   query.for ??= query.fits ? undefined : (await currentVehicle({ request, context }, db))?.variantId;
+  // The year as typed, so a year the catalogue does not cover stays in the box to be corrected.
+  const yearText = (params.get("year") ?? "").slice(0, 20);
+  // The "most reported fits" order changes with readers' reports too.
+  const key = `${stamps.guides}.${stamps.catalogue}.${query.sort === "fits" ? stamps.reports : ""}:${yearText}:${JSON.stringify(query)}`;
+  let page = pageJson.get(key);
+  if (page === undefined) {
+    // Every "<" escaped: the same JSON goes into a document as a data block (DocumentJson).
+    page = JSON.stringify(await libraryPage(db, query, stamps, yearText)).replaceAll("<", "\\u003c");
+    pageJson.set(key, page);
+  }
+  // A document carries the data once, as a data block; a navigation's data carries it.
+  if (!isDocumentRequest(request)) return { page };
+  context.set(documentFragmentsContext, new Map([[PAGE_JSON_ID, page]]));
+  return { page: null };
+}
+
+/** The data block a document's Library page comes in. */
+const PAGE_JSON_ID = "library-data";
+
+/**
+ * The page's data as one JSON string, made once per content stamps, query and year as typed: React
+ * Router then hands over one string instead of walking a page of guides and every facet on each
+ * request, and the document cache's key digests it once (document-cache.server.ts).
+ */
+const pageJson = new BoundedCache<string, string>(8 * 1024 * 1024, (json) => json.length);
+
+type LibraryPage = Awaited<ReturnType<typeof libraryPage>>;
+const readPage = jsonReader<LibraryPage>();
+
+async function libraryPage(db: Db, query: LibraryQuery, stamps: ContentStamps, yearText: string) {
   const [result, catalogue] = await Promise.all([readLibrary(db, query, stamps), readCatalogue(db, stamps)]);
   const readerVariant = variantNamed(catalogue, query.fits ?? query.for);
   const selectedVehicle = [query.make, query.model, query.generation].filter(Boolean).join(".");
@@ -87,8 +122,6 @@ export async function loader({ request, context }: Route.LoaderArgs) {
         }),
     ]),
   );
-  // The year as typed, so a year the catalogue does not cover stays in the box to be corrected.
-  const yearText = (params.get("year") ?? "").slice(0, 20);
   const { problems: _asked, ...shown } = query;
   // The variants of the generation picked, for "your variant" and "only guides that fit it".
   const variantChoices = generationVariants(catalogue, query);
@@ -335,7 +368,7 @@ export default function Library({ loaderData }: Route.ComponentProps) {
     selectedVehicle,
     readerVariant,
     variantChoices,
-  } = loaderData;
+  } = readPage(useDocumentJson(PAGE_JSON_ID, loaderData.page));
   const [scripted, setScripted] = useState(false);
   useEffect(() => setScripted(true), []);
   const navigation = useNavigation();
@@ -356,6 +389,7 @@ export default function Library({ loaderData }: Route.ComponentProps) {
 
   return (
     <div className="mx-auto max-w-6xl px-4 py-6 sm:px-6 lg:py-10">
+      {loaderData.page === null ? <DocumentJson id={PAGE_JSON_ID} /> : null}
       <header className="max-w-3xl">
         <h1 className="font-serif text-3xl font-semibold tracking-tight text-spruce-900 md:text-5xl">
           Install guides you can check before you drill

@@ -115,6 +115,20 @@ describe("a page for a reader who is not signed in", () => {
   });
 });
 
+describe("the Library page", () => {
+  it("carries its data once, as a data block, and a navigation's data carries it instead", async () => {
+    const api = (await (await client.get("/api/guides")).json()) as { guides: { slug: string; title: string }[] };
+    const html = await (await client.get("/")).text();
+    const block = /<script type="application\/json" id="library-data">([\s\S]*?)<\/script>/.exec(html)?.[1] ?? "";
+    expect(block).not.toContain("<");
+    const page = JSON.parse(block) as { guides: { slug: string; title: string }[] };
+    expect(page.guides.map((g) => g.slug)).toEqual(api.guides.map((g) => g.slug));
+    // React Router's data for a navigation to the index route (its `_root.data` address).
+    const data = await (await client.get("/_root.data")).text();
+    expect(data).toContain(api.guides[0]?.slug ?? "no guide");
+  });
+});
+
 describe("a page that is not a reader page", () => {
   it.each([["/login"], ["/signup"], ["/reset"]])("%s carries no ETag and is not public", async (path) => {
     const page = await client.get(path);
