@@ -21,6 +21,7 @@ import { bundleFigures } from "./bundles";
 import { checklistTicks } from "./checklist";
 import { runModels } from "./models";
 import { runScale } from "./scale";
+import { steadiness } from "./steadiness";
 import {
   BARE_DIR,
   buildIfStale,
@@ -252,6 +253,7 @@ try {
     await runModels(demo.databaseFile, plan.modelRuns);
   } else if (scalePath) {
     await buildTorqueleaf();
+    console.log(`before: ${await steadiness()}`);
     await runScale(scalePath, {
       port: TORQUELEAF_PORT + 1,
       runs: plan.scaleRuns,
@@ -260,8 +262,11 @@ try {
       httpSeconds: plan.scaleHttpSeconds,
       onCleanup: (step) => cleanups.push(step),
     });
+    console.log(`\nafter: ${await steadiness()}`);
   } else {
+    console.log(`before: ${await steadiness()}`);
     await mainRun();
+    console.log(`\nafter: ${await steadiness()}`);
   }
 } finally {
   await cleanUp();
