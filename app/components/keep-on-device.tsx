@@ -34,7 +34,8 @@ function discoveryRequests(): string[] {
     .slice(-50);
 }
 
-function buildId(): string {
+/** The build's id the kept app files are stored under (React Router's manifest version). */
+export function buildId(): string {
   const version = (window as { __reactRouterManifest?: { version?: string } }).__reactRouterManifest?.version;
   return version && /^[\w-]{1,64}$/.test(version) ? version : "current";
 }
@@ -90,5 +91,48 @@ export function KeepOnDevice({ guide }: { guide: Pick<ShownGuide, "slug" | "step
         {state.text}
       </span>
     </span>
+  );
+}
+
+/**
+ * On a checklist page: if the reader kept the guide it was copied from on this device, the
+ * checklist is kept with it (and refreshed while there is signal), whether it was saved before
+ * or after the guide was kept. Says so when it is.
+ */
+export function KeptWithGuide({ checklist, guideSlug }: { checklist: number; guideSlug: string }) {
+  const reader: ReaderId = useRootData()?.user?.id ?? null;
+  const [kept, setKept] = useState(false);
+  useEffect(() => {
+    if (reader === null || !guideSlug) return;
+    let current = true;
+    const ask = () =>
+      askWorker({
+        type: "keep-checklist",
+        reader,
+        checklist,
+        guide: `/guides/${encodeURIComponent(guideSlug)}`,
+        build: buildId(),
+        discovery: discoveryRequests(),
+      }).then((reply) => {
+        const yes = Boolean(reply?.ok && reply.kept);
+        if (current) setKept(yes);
+        return yes;
+      });
+    // Asked again a little later with the route discovery the page has made by then, so its links
+    // work without signal too (the worker keeps later ones itself once the page is kept).
+    let again: ReturnType<typeof setTimeout> | undefined;
+    void ask().then((yes) => {
+      if (yes && current) again = setTimeout(() => void ask(), 2000);
+    });
+    return () => {
+      current = false;
+      clearTimeout(again);
+    };
+  }, [reader, checklist, guideSlug]);
+  if (!kept) return null;
+  return (
+    <p role="status" className="mt-2 text-sm text-ink-soft print:hidden">
+      Kept on this device with its guide: it opens here without signal.
+    </p>
   );
 }

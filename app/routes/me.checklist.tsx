@@ -1,6 +1,7 @@
 import { Form, Link } from "react-router";
 import { AddItemForm, ChecklistItemRow, Progress } from "~/components/checklist";
 import { Notice, SubmitButton } from "~/components/form";
+import { KeptWithGuide } from "~/components/keep-on-device";
 import { getDb } from "~/db/client.server";
 import { idParam } from "~/models/checklist-input";
 import { getChecklist } from "~/models/checklists.server";
@@ -87,6 +88,7 @@ export default function ChecklistPage({ loaderData, actionData }: Route.Componen
           the guide
         </Link>
       </p>
+      <KeptWithGuide checklist={checklist.id} guideSlug={checklist.guide.slug} />
       <Progress checked={ticked} total={current.length} label="This checklist" />
       {failure ? (
         <div className="mt-4">

@@ -29,6 +29,7 @@ import {
   QUEUED_ITEM_PATH,
   type QueuedItemChange,
   type ReaderId,
+  type Refusal,
 } from "../utils/offline-protocol";
 
 /**
@@ -51,6 +52,9 @@ const readerSchema = nullable(int().check(positive()));
 
 const META_CACHE = "tl-meta";
 const READER_KEY = "/__offline/reader";
+/** The changes the server refused when they were sent later, until a page of that reader has shown them. */
+const REFUSED_KEY = "/__offline/refused";
+const REFUSED_KEPT = 20;
 const QUEUE_NAME = "tl-changes";
 
 async function storedReader(): Promise<ReaderId> {
@@ -78,25 +82,61 @@ const queue = new BackgroundSyncQueue(QUEUE_NAME, {
 
 let replaying: Promise<number> | null = null;
 
+const refusedSchema = object({
+  reader: readerSchema,
+  refused: array(object({ path: string(), status: int(), message: string() })).check(maxLength(REFUSED_KEPT)),
+});
+
+/** The refusals kept for this reader (none for another). */
+async function storedRefusals(reader: ReaderId): Promise<Refusal[]> {
+  const kept = await (await caches.open(META_CACHE)).match(REFUSED_KEY);
+  const parsed = refusedSchema.safeParse(kept ? await kept.json().catch(() => null) : null);
+  return parsed.success && parsed.data.reader === reader ? parsed.data.refused : [];
+}
+
+async function storeRefusals(reader: ReaderId, refused: Refusal[]): Promise<void> {
+  const meta = await caches.open(META_CACHE);
+  if (refused.length === 0) await meta.delete(REFUSED_KEY);
+  else await meta.put(REFUSED_KEY, Response.json({ reader, refused: refused.slice(-REFUSED_KEPT) }));
+}
+
+/** What the server said when it refused a change: its error message (design/api.md's shape), else the status. */
+async function refusalOf(request: Request, response: Response): Promise<Refusal> {
+  const body = (await response.json().catch(() => null)) as { error?: { message?: unknown } } | null;
+  const message =
+    typeof body?.error?.message === "string" ? body.error.message.slice(0, 300) : `The server answered ${response.status}.`;
+  return { path: new URL(request.url).pathname.slice(0, 300), status: response.status, message };
+}
+
 /**
  * Sends the queued changes in the order they were made. Any answer from the server ends an entry
- * (a 409 for a stale revision or a 404 for a removed checklist item cannot succeed later); a
- * network failure puts it back and stops. Changes queued by another reader are dropped.
+ * (a 409 for a stale revision or a 404 for a removed checklist item cannot succeed later): a
+ * refusal is kept, with the server's message, for the reader's next page to show. A network
+ * failure or a server error (5xx) puts the entry back and stops. Changes queued by another reader
+ * are dropped.
  */
 function replay(): Promise<number> {
   replaying ??= (async () => {
     const reader = await storedReader();
     let sent = 0;
+    const refused: Refusal[] = [];
     for (let entry = await queue.shiftRequest(); entry; entry = await queue.shiftRequest()) {
       if ((entry.metadata as { reader?: ReaderId } | undefined)?.reader !== reader) continue;
+      let response: Response;
       try {
-        await fetch(entry.request.clone());
-        sent += 1;
+        response = await fetch(entry.request.clone());
       } catch {
         await queue.unshiftRequest(entry);
         break;
       }
+      if (response.status >= 500) {
+        await queue.unshiftRequest(entry);
+        break;
+      }
+      if (response.ok) sent += 1;
+      else refused.push(await refusalOf(entry.request, response));
     }
+    if (refused.length) await storeRefusals(reader, [...(await storedRefusals(reader)), ...refused]);
     return sent;
   })().finally(() => {
     replaying = null;
@@ -155,9 +195,11 @@ async function keptAssetOrNetwork(request: Request): Promise<Response> {
 }
 
 /** The network first; without it, a kept copy (React Router's route discovery for a kept page). */
-async function networkThenKeptAsset(request: Request): Promise<Response> {
+async function networkThenKeptAsset(request: Request, clientId: string): Promise<Response> {
   try {
-    return await fetch(request);
+    const response = await fetch(request);
+    if (response.ok) await keepDiscoveryOfKeptPage(request, clientId, response.clone());
+    return response;
   } catch (error) {
     for (const name of await caches.keys()) {
       if (!name.startsWith(ASSETS_CACHE_PREFIX)) continue;
@@ -166,6 +208,21 @@ async function networkThenKeptAsset(request: Request): Promise<Response> {
     }
     throw error;
   }
+}
+
+/**
+ * A route discovery answer (public: it describes the app's routes, not the reader) asked for by a
+ * guide or checklist page while this reader keeps pages on the device: kept too, so the links of a
+ * page kept a moment later (a checklist saved after its guide was kept) work without signal.
+ */
+async function keepDiscoveryOfKeptPage(request: Request, clientId: string, response: Response): Promise<void> {
+  const client = clientId ? await sw.clients.get(clientId) : undefined;
+  if (!client) return;
+  const page = new URL(client.url);
+  if (page.origin !== sw.location.origin || !(KEEPABLE_PAGE.test(page.pathname) || KEPT_CHECKLIST_PAGE.test(page.pathname)))
+    return;
+  if ((await (await caches.open(pagesCacheName(await storedReader()))).keys()).length === 0) return;
+  await (await caches.open(`${ASSETS_CACHE_PREFIX}discovery`)).put(request.url, response);
 }
 
 const sameOrigin = (url: string) => new URL(url, sw.location.origin).origin === sw.location.origin;
@@ -190,18 +247,47 @@ async function keepChecklists(reader: number, page: string, build: string): Prom
   }).safeParse(await (await fetchOk("/api/checklists", { headers: { accept: "application/json" } })).json());
   if (!listed.success) return;
   const pages = await caches.open(pagesCacheName(reader));
-  const assetCache = await caches.open(`${ASSETS_CACHE_PREFIX}${build}`);
   for (const checklist of listed.data.checklists.filter((c) => c.guide.slug === slug)) {
-    const address = `/me/checklists/${checklist.id}`;
-    const [html, data] = await Promise.all([fetchOk(address), fetchOk(`${address}.data`)]);
-    const assets = assetsIn(await html.clone().text());
-    await Promise.all([pages.put(address, html), pages.put(`${address}.data`, data)]);
-    await Promise.all(
-      assets.map(async (url) => {
-        if (!(await assetCache.match(url))) await assetCache.put(url, await fetchOk(url, { cache: "default" }));
-      }),
-    );
+    await keepChecklistPage(pages, checklist.id, build);
   }
+}
+
+/** One checklist's page and data into the reader's cache, and the app's files the page loads. */
+async function keepChecklistPage(pages: Cache, checklist: number, build: string): Promise<void> {
+  const address = `/me/checklists/${checklist}`;
+  const [html, data] = await Promise.all([fetchOk(address), fetchOk(`${address}.data`)]);
+  const assets = assetsIn(await html.clone().text());
+  await Promise.all([pages.put(address, html), pages.put(`${address}.data`, data)]);
+  const assetCache = await caches.open(`${ASSETS_CACHE_PREFIX}${build}`);
+  await Promise.all(
+    assets.map(async (url) => {
+      if (!(await assetCache.match(url))) await assetCache.put(url, await fetchOk(url, { cache: "default" }));
+    }),
+  );
+}
+
+/**
+ * A checklist opened while the guide it was copied from is kept for this reader (saved after the
+ * guide was kept, say): kept with it, fresh while there is signal. Whether it is kept now.
+ */
+async function keepWithKeptGuide(
+  reader: ReaderId,
+  checklist: number,
+  guide: string,
+  build: string,
+  discovery: string[],
+): Promise<boolean> {
+  if (reader === null || (await storedReader()) !== reader) return false;
+  const pages = await caches.open(pagesCacheName(reader));
+  if (!(await pages.match(guide))) return false;
+  try {
+    await keepChecklistPage(pages, checklist, build);
+    const assetCache = await caches.open(`${ASSETS_CACHE_PREFIX}${build}`);
+    await Promise.all(discovery.map(async (url) => assetCache.put(url, await fetchOk(url))));
+  } catch {
+    // No signal (or the server refused): what was kept stays as it was.
+  }
+  return Boolean(await pages.match(`/me/checklists/${checklist}`));
 }
 
 async function keep(reader: ReaderId, page: string, photos: string[], assets: string[], build: string, discovery: string[]) {
@@ -237,6 +323,14 @@ const messageSchema = discriminatedUnion("type", [
   }),
   object({ type: literal("is-kept"), reader: readerSchema, page: address }),
   object({ type: literal("replay"), reader: readerSchema }),
+  object({
+    type: literal("keep-checklist"),
+    reader: readerSchema,
+    checklist: int().check(positive()),
+    guide: string().check(maxLength(2000), regex(KEEPABLE_PAGE)),
+    build: string().check(regex(/^[\w-]{1,64}$/)),
+    discovery: array(string().check(maxLength(2000), regex(/^\/__manifest\?[\w%.,=&-]+$/))).check(maxLength(50)),
+  }),
   object({ type: literal("queued-items"), reader: readerSchema, checklist: int().check(positive()) }),
 ]);
 
@@ -283,9 +377,19 @@ async function answer(data: unknown): Promise<OfflineReply> {
       const same = (await storedReader()) === message.reader;
       return { ok: true, kept: same && Boolean(await (await caches.open(pagesCacheName(message.reader))).match(message.page)) };
     }
-    case "replay":
+    case "replay": {
       await setReader(message.reader);
-      return { ok: true, replayed: await replay() };
+      const replayed = await replay();
+      // The refusals go to the page that asked, once.
+      const refused = await storedRefusals(message.reader);
+      if (refused.length) await storeRefusals(message.reader, []);
+      return { ok: true, replayed, refused };
+    }
+    case "keep-checklist":
+      return {
+        ok: true,
+        kept: await keepWithKeptGuide(message.reader, message.checklist, message.guide, message.build, message.discovery),
+      };
     case "queued-items":
       return { ok: true, changes: await queuedItems(message.reader, message.checklist) };
   }
@@ -311,7 +415,7 @@ sw.addEventListener("fetch", (event) => {
     }
     if (request.method !== "GET") return;
     if (url.pathname === "/__manifest") {
-      event.respondWith(networkThenKeptAsset(request));
+      event.respondWith(networkThenKeptAsset(request, event.clientId));
       return;
     }
     if (url.pathname.startsWith("/assets/")) {

@@ -1,4 +1,4 @@
-import type { OfflineMessage, OfflineReply, ReaderId } from "./offline-protocol";
+import type { OfflineMessage, OfflineReply, ReaderId, Refusal } from "./offline-protocol";
 
 /**
  * The page's side of the service worker (app/service-worker/worker.ts): registering it, telling it
@@ -7,6 +7,9 @@ import type { OfflineMessage, OfflineReply, ReaderId } from "./offline-protocol"
 
 /** The event the page hears when queued changes may have reached the server: screens read their data again. */
 export const SYNCED_EVENT = "tl:synced";
+
+/** The event the page hears when the server refused changes made without signal (its `detail`: the refusals). */
+export const REFUSED_EVENT = "tl:refused";
 
 const LAST_READER_KEY = "tl-reader";
 
@@ -42,8 +45,10 @@ let syncing: Promise<void> | null = null;
 /** Asks the worker to send what it queued (once at a time), then tells the screens to read their data again. */
 export function syncQueued(reader: ReaderId): Promise<void> {
   syncing ??= askWorker({ type: "replay", reader })
-    .then(() => {
+    .then((reply) => {
       window.dispatchEvent(new Event(SYNCED_EVENT));
+      const refused = reply?.ok ? (reply.refused ?? []) : [];
+      if (refused.length) window.dispatchEvent(new CustomEvent<Refusal[]>(REFUSED_EVENT, { detail: refused }));
     })
     .finally(() => {
       syncing = null;

@@ -18,6 +18,8 @@ export type OfflineMessage =
   | { type: "is-kept"; reader: ReaderId; page: string }
   /** Send the queued changes now (the page saw the signal come back, or just loaded). */
   | { type: "replay"; reader: ReaderId }
+  /** Keep this checklist page with the guide it was copied from, if this reader kept that guide. */
+  | { type: "keep-checklist"; reader: ReaderId; checklist: number; guide: string; build: string; discovery: string[] }
   /** This reader's changes to one checklist's items still waiting for the server, oldest first. */
   | { type: "queued-items"; reader: ReaderId; checklist: number };
 
@@ -25,8 +27,11 @@ export type OfflineMessage =
 export type ItemChange = { checked?: boolean; quantity?: number; note?: string | null };
 export type QueuedItemChange = { itemId: number; change: ItemChange };
 
+/** A queued change the server refused when it was sent later: where it went, the status and the server's message. */
+export type Refusal = { path: string; status: number; message: string };
+
 export type OfflineReply =
-  | { ok: true; kept?: boolean; replayed?: number; changes?: QueuedItemChange[] }
+  | { ok: true; kept?: boolean; replayed?: number; refused?: Refusal[]; changes?: QueuedItemChange[] }
   | { ok: false; message: string };
 
 /** The header on the worker's answer to a change it queued for later (HTTP 202). */

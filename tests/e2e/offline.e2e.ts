@@ -402,3 +402,55 @@ it("the checklist page is kept with its guide: ticks and notes made on it withou
     errors.filter((e) => !/Failed to load resource|ERR_INTERNET_DISCONNECTED|Failed to fetch manifest patches/.test(e)),
   ).toEqual([]);
 });
+
+it("a checklist saved after its guide was kept is kept with it, and a change the server refused when it was sent later is shown with the reason", async () => {
+  const browser = await launchBrowser({ viewport: { width: 360, height: 780 } });
+  context = browser;
+  const { page, errors } = await openPage(browser);
+  await signIn(page, "reader@torqueleaf.test");
+  await dropChecklistsOfGuide(browser);
+  await page.goto(GUIDE);
+  await settle(page);
+  await controlled(page);
+  await page.getByRole("button", { name: "Keep on this device", exact: true }).click();
+  await page.getByText("Kept on this device: it opens here without signal.").waitFor();
+
+  // Saved after the guide was kept: the checklist page keeps itself with the guide.
+  await page.getByRole("button", { name: "Save a parts checklist", exact: true }).click();
+  await page.waitForURL(/\/me\/checklists\/\d+$/);
+  const id = Number(new URL(page.url()).pathname.split("/").at(-1));
+  await page.getByText("Kept on this device with its guide: it opens here without signal.").waitFor();
+  await screenshot(page, "offline-checklist-kept-after-save");
+
+  await browser.setOffline(true);
+  await page.reload();
+  await settle(page);
+  await expect.poll(() => page.locator("h1").textContent()).toContain("auxiliary lamps on a fused relay harness");
+  const firstRow = page.locator("li[data-item]").first();
+  await firstRow.getByRole("button", { name: /^Ticked off: / }).click();
+  await firstRow.getByText(/No signal: saved on this device/).waitFor();
+  await expect.poll(() => queuedCount(page)).toBe(1);
+  await page.goto(GUIDE);
+  await settle(page);
+
+  // The checklist is deleted elsewhere before the signal returns (the API client has its own network):
+  // the queued tick then gets a 404, which cannot succeed later.
+  const deleted = await browser.request.delete(`${origin}/api/checklists/${id}`, { headers: { origin } });
+  expect(deleted.status()).toBe(204);
+  await browser.setOffline(false);
+  const alert = page.getByRole("alert").filter({ hasText: "A change you made without signal was not saved." });
+  await alert.waitFor({ timeout: 20_000 });
+  // The server's own reason (design/api.md's error message), and the way to the checklist it was for.
+  expect(await alert.textContent()).toMatch(/checklist/i);
+  expect(await alert.getByRole("link", { name: "Open the checklist" }).getAttribute("href")).toBe(`/me/checklists/${id}`);
+  await screenshot(page, "offline-refused-change");
+  expect(await queuedCount(page)).toBe(0);
+  await alert.getByRole("button", { name: "Dismiss", exact: true }).click();
+  await expect.poll(() => alert.count()).toBe(0);
+  // Offline, the checklist page's first load asks React Router's route discovery about its links
+  // (a different question from the one its client-side visit asked online), which cannot be answered
+  // without signal: a network failure like the others, which the page survives.
+  const offlineNetwork =
+    /Failed to load resource|ERR_INTERNET_DISCONNECTED|^Failed to fetch manifest patches TypeError: Failed to fetch/;
+  expect(errors.filter((e) => !offlineNetwork.test(e))).toEqual([]);
+});
