@@ -7,9 +7,19 @@ import type { EntryContext, RouterContextProvider } from "react-router";
 import { isRouteErrorResponse, ServerRouter } from "react-router";
 import { DocumentFragments } from "./components/document-html";
 import { CspNonce } from "./services/http/csp";
-import { documentKey, keepDocument, keptDocument, NONCE_STAND_IN } from "./services/http/document-cache.server";
+import { getDb } from "./db/client.server";
+import { readContentStamps, requestStampsOf } from "./models/content-stamps.server";
+import {
+  type AnonymousAnswer,
+  anonymousAnswer,
+  documentKey,
+  keepDocument,
+  keptDocument,
+  NONCE_STAND_IN,
+  noteAnonymousPage,
+} from "./services/http/document-cache.server";
 import { documentFragments } from "./services/http/document-fragments.server";
-import { documentNonce } from "./services/http/security-headers.server";
+import { createNonce, documentNonce } from "./services/http/security-headers.server";
 import { matchesEtag, PUBLIC_CACHE_CONTROL } from "./utils/http.server";
 
 export const streamTimeout = 5_000;
@@ -58,14 +68,21 @@ export default function handleRequest(
       return new Response(null, { status: 304, headers: responseHeaders });
     }
     responseHeaders.set("Content-Type", "text/html");
+    const stamps = requestStampsOf(loadContext);
     const kept = keptDocument(shared.key, nonce);
-    if (kept !== undefined) return new Response(kept, { status: 200, headers: responseHeaders });
+    if (kept !== undefined) {
+      noteAnonymousPage(request, stamps, shared, responseHeaders, nonce);
+      return new Response(kept, { status: 200, headers: responseHeaders });
+    }
     return renderWhole(routerContext, request.url, fragments).then(({ html, failed }) => {
       // A render that failed part-way is answered as the error it is: not kept, and no ETag to ask again by.
       if (failed) {
         responseHeaders.set("Cache-Control", "no-store");
         responseHeaders.delete("ETag");
-      } else keepDocument(shared.key, html);
+      } else {
+        keepDocument(shared.key, html);
+        noteAnonymousPage(request, stamps, shared, responseHeaders, nonce);
+      }
       return new Response(html.replaceAll(NONCE_STAND_IN, nonce), { status: failed ? 500 : 200, headers: responseHeaders });
     });
   }
@@ -107,6 +124,16 @@ export default function handleRequest(
       },
     });
   });
+}
+
+/**
+ * For the production server (app/cli/start.ts): the answer to a GET that carries no cookie and no
+ * credentials, from a page kept for the same address under the content stamps as they are now, or
+ * undefined (React Router answers it). See document-cache.server.ts.
+ */
+export async function anonymousPage(path: string, ifNoneMatch: string | undefined): Promise<AnonymousAnswer | undefined> {
+  const stamps = await readContentStamps(await getDb());
+  return anonymousAnswer(path, ifNoneMatch, stamps, createNonce());
 }
 
 /** The document: the router with this answer's nonce and the HTML fragments rendered beside the data. */

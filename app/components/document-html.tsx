@@ -1,4 +1,5 @@
 import { createContext, useContext } from "react";
+import { useCspNonce } from "~/services/http/csp";
 
 /**
  * HTML that a document's markup carries once, not twice: a loader puts it beside its data for the
@@ -34,10 +35,11 @@ export function useDocumentJson(id: string, json: string | null): string {
  * A page's data as a JSON data block, once in the document instead of inside React Router's
  * hand-off script (where it would be escaped twice and encoded again on every request). The JSON
  * must have every `<` written as `\u003c`, so no text in it can end the element. Browsers do not
- * run a data block, so it needs no nonce.
+ * run a data block; it carries the nonce all the same, as every script element of the page does.
  */
 export function DocumentJson({ id }: { id: string }) {
   const json = useDocumentJson(id, null);
+  const nonce = useCspNonce();
   // biome-ignore lint/security/noDangerouslySetInnerHtml: JSON with every "<" escaped (see above)
-  return <script type="application/json" id={id} dangerouslySetInnerHTML={{ __html: json }} />;
+  return <script type="application/json" id={id} nonce={nonce} dangerouslySetInnerHTML={{ __html: json }} />;
 }

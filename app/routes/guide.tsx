@@ -5,7 +5,7 @@ import { KeepOnDevice } from "~/components/keep-on-device";
 import { GuideVehicleLine } from "~/components/vehicle-fitment-line";
 import { StepDoneTick, WorkThroughProgress, WorkThroughProvider } from "~/components/work-through";
 import { getDb } from "~/db/client.server";
-import { readContentStamps } from "~/models/content-stamps.server";
+import { readRequestStamps } from "~/models/content-stamps.server";
 import { getPublishedGuide, type PublishedGuide } from "~/models/library.server";
 import { unpublishedGuide } from "~/models/review-desk.server";
 import { documentFragmentsContext } from "~/services/http/document-fragments.server";
@@ -112,7 +112,7 @@ function unpublishedMessage(gone: { title: string; reason: string | null; at: Da
 export async function loader({ params, request, context }: Route.LoaderArgs) {
   const db = await getDb();
   // Read once, before anything the page shows: what is kept is looked up by these.
-  const stamps = await readContentStamps(db);
+  const stamps = await readRequestStamps(context, db);
   const found = await getPublishedGuide(db, getStorage(), params.slug, stamps);
   if (!found) {
     const gone = await unpublishedGuide(db, params.slug);

@@ -18,7 +18,7 @@ import {
   withoutEmptyParams,
   withoutFilter,
 } from "~/models/library.server";
-import { type ContentStamps, readContentStamps } from "~/models/content-stamps.server";
+import { type ContentStamps, readRequestStamps } from "~/models/content-stamps.server";
 import { readCatalogue, readLibrary } from "~/models/reader-cache.server";
 import type { CatalogueTree } from "~/models/catalogue.server";
 import {
@@ -64,7 +64,7 @@ export async function loader({ request, context }: Route.LoaderArgs) {
   }
   const query = parseLibraryQuery(params);
   const db = await getDb();
-  const stamps = await readContentStamps(db);
+  const stamps = await readRequestStamps(context, db);
   // The variant the cards are judged against: the one the address names, else the reader's current
   // vehicle (a signed-in reader's, or a visitor's picked one; either makes the page private).
   query.for ??= query.fits ? undefined : (await currentVehicle({ request, context }, db))?.variantId;

@@ -53,7 +53,11 @@ export const PUBLIC_CACHE_CONTROL = "public, max-age=30, stale-while-revalidate=
 
 /** Whether the request's If-None-Match names this ETag (RFC 9110 §13.1.2, weak comparison). */
 export function matchesEtag(request: Request, etag: string): boolean {
-  const header = request.headers.get("if-none-match");
+  return etagListed(request.headers.get("if-none-match"), etag);
+}
+
+/** Whether an If-None-Match header's value names `etag` (weak comparison, RFC 9110 §13.1.2). */
+export function etagListed(header: string | null | undefined, etag: string): boolean {
   if (!header) return false;
   if (header.trim() === "*") return true;
   const opaque = (tag: string) => tag.trim().replace(/^W\//, "");

@@ -84,7 +84,17 @@ export function startOffline(reader: ReaderId, register: boolean): () => void {
     });
   }
   void navigator.serviceWorker.ready.then(() => askWorker({ type: "reader", reader })).then(() => syncQueued(reader));
-  const online = () => void syncQueued(reader);
+  // Sent as the signal returns, and once more a moment later: the worker's own network may come
+  // back a little after the page hears it, and a change that could not be sent waits in the queue.
+  let again: ReturnType<typeof setTimeout> | undefined;
+  const online = () => {
+    void syncQueued(reader);
+    clearTimeout(again);
+    again = setTimeout(() => void syncQueued(reader), 3000);
+  };
   window.addEventListener("online", online);
-  return () => window.removeEventListener("online", online);
+  return () => {
+    clearTimeout(again);
+    window.removeEventListener("online", online);
+  };
 }

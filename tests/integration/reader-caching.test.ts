@@ -73,14 +73,34 @@ describe("a page for a reader who is not signed in", () => {
     expect(htmlA).toContain(`nonce="${nonceA}"`);
     expect(htmlA).not.toContain(`nonce="${nonceB}"`);
     expect(htmlB).toContain(`nonce="${nonceB}"`);
-    // Every script carries the answer's own nonce, none the one kept with the markup. A JSON data
-    // block is not a script the browser runs (HTML Living Standard §4.12.1.1), so it needs none.
-    const scripts = [...htmlB.matchAll(/<script\b[^>]*>/g)]
-      .map(([tag]) => tag)
-      .filter((tag) => !tag.includes('type="application/json"'));
+    // Every script carries the answer's own nonce, none the one kept with the markup.
+    const scripts = [...htmlB.matchAll(/<script\b[^>]*>/g)].map(([tag]) => tag);
     expect(scripts.length).toBeGreaterThan(0);
     for (const tag of scripts) expect(tag.includes(`nonce="${nonceB}"`) || / src="/.test(tag)).toBe(true);
     expect(a.headers.get("etag")).toBe(b.headers.get("etag"));
+  });
+
+  it("is answered alike every time (the page as it was kept, before React Router runs): headers and markup differ by the nonce only", async () => {
+    const answers = [];
+    for (const path of [GUIDE, GUIDE, GUIDE, "/", "/", "/?category=lighting", "/?category=lighting"]) {
+      const response = await client.get(path);
+      const nonce = nonceOf(response) ?? "no nonce";
+      const headers = [...response.headers]
+        .filter(([name]) => name !== "date" && name !== "keep-alive" && name !== "connection")
+        .map(([name, value]) => `${name}: ${value.replaceAll(nonce, "NONCE")}`)
+        .sort();
+      answers.push({ path, headers, body: (await response.text()).replaceAll(nonce, "NONCE") });
+    }
+    for (const [a, b] of [
+      [0, 1],
+      [1, 2],
+      [3, 4],
+      [5, 6],
+    ] as const) {
+      expect(answers[b].headers).toEqual(answers[a].headers);
+      expect(answers[b].body).toBe(answers[a].body);
+    }
+    expect(answers[3].body).not.toBe(answers[5].body);
   });
 
   it("carries each step's text once: in the markup, not again in the data for hydration", async () => {
@@ -100,7 +120,7 @@ describe("a page for a reader who is not signed in", () => {
     const part = api.parts[0]?.name ?? "";
     expect(part.length).toBeGreaterThan(3);
     const html = await (await client.get(GUIDE)).text();
-    const block = /<script type="application\/json" id="guide-data">([\s\S]*?)<\/script>/.exec(html)?.[1] ?? "";
+    const block = /<script type="application\/json" id="guide-data"[^>]*>([\s\S]*?)<\/script>/.exec(html)?.[1] ?? "";
     // No "<" in the block: nothing in it can end the element early (HTML Living Standard §4.12.1.3).
     expect(block).not.toContain("<");
     const guide = JSON.parse(block) as { title: string; parts: { name: string }[] };
@@ -119,7 +139,7 @@ describe("the Library page", () => {
   it("carries its data once, as a data block, and a navigation's data carries it instead", async () => {
     const api = (await (await client.get("/api/guides")).json()) as { guides: { slug: string; title: string }[] };
     const html = await (await client.get("/")).text();
-    const block = /<script type="application\/json" id="library-data">([\s\S]*?)<\/script>/.exec(html)?.[1] ?? "";
+    const block = /<script type="application\/json" id="library-data"[^>]*>([\s\S]*?)<\/script>/.exec(html)?.[1] ?? "";
     expect(block).not.toContain("<");
     const page = JSON.parse(block) as { guides: { slug: string; title: string }[] };
     expect(page.guides.map((g) => g.slug)).toEqual(api.guides.map((g) => g.slug));

@@ -1,6 +1,8 @@
 import { createHash, randomBytes } from "node:crypto";
 import type { EntryContext } from "react-router";
+import type { ContentStamps } from "~/models/content-stamps.server";
 import { BoundedCache } from "~/utils/bounded-cache";
+import { etagListed } from "~/utils/http.server";
 
 /**
  * Rendered documents for readers who are not signed in, kept by what they were rendered from: the
@@ -108,4 +110,60 @@ export function keptDocument(key: string, nonce: string): Uint8Array<ArrayBuffer
 export function keepDocument(key: string, html: string): void {
   const parts = html.split(NONCE_STAND_IN).map((part) => Buffer.from(part));
   documents.set(key, { parts, bytes: parts.reduce((n, part) => n + part.length, 0) });
+}
+
+/**
+ * For a request with no cookie and no credentials at all, a kept page's whole answer depends only
+ * on its address and the content stamps its loader read (nobody is signed in, no message waits, no
+ * vehicle is picked): each answer of that kind is noted here, and the next such request for the
+ * same address under the same stamps is answered from it before React Router runs (app/cli/start.ts)
+ * with a fresh nonce. Any change to the content moves a stamp, so the next request renders afresh.
+ */
+type AnonymousPage = { key: string; etag: string; headers: [string, string][] };
+const ANONYMOUS_PAGES_KEPT = 4096;
+const anonymousPages = new BoundedCache<string, AnonymousPage>(ANONYMOUS_PAGES_KEPT);
+
+const anonymousKey = (url: URL, stamps: ContentStamps) =>
+  `${stamps.guides}.${stamps.catalogue}.${stamps.reports}:${url.pathname}${url.search}`;
+
+/** A request that carries nothing of anybody: its page is the same for everyone. */
+export const isAnonymous = (headers: { has(name: string): boolean }) => !headers.has("cookie") && !headers.has("authorization");
+
+/** Notes a kept page's answer (its headers as sent, with the nonce stand-in) for anonymous requests. */
+export function noteAnonymousPage(
+  request: Request,
+  stamps: ContentStamps | null,
+  kept: { key: string; etag: string },
+  headers: Headers,
+  nonce: string,
+): void {
+  if (!stamps || !isAnonymous(request.headers)) return;
+  const template: [string, string][] = [...headers].map(([name, value]) => [name, value.replaceAll(nonce, NONCE_STAND_IN)]);
+  anonymousPages.set(anonymousKey(new URL(request.url), stamps), { key: kept.key, etag: kept.etag, headers: template });
+}
+
+export type AnonymousAnswer = { status: 200 | 304; headers: [string, string][]; body: Uint8Array | null };
+
+/**
+ * The answer to an anonymous GET of `path` (with its query) under these stamps, if one was noted and
+ * its document is still kept; else undefined, and React Router answers.
+ */
+export function anonymousAnswer(
+  path: string,
+  ifNoneMatch: string | undefined,
+  stamps: ContentStamps,
+  nonce: string,
+): AnonymousAnswer | undefined {
+  const url = new URL(path, "http://torqueleaf.invalid");
+  const page = anonymousPages.get(anonymousKey(url, stamps));
+  if (!page) return undefined;
+  const withNonce = (value: string) => value.replaceAll(NONCE_STAND_IN, nonce);
+  if (etagListed(ifNoneMatch, page.etag)) {
+    // As React Router's answer would be: the browser keeps the policy that came with its page.
+    const headers = page.headers.filter(([name]) => name !== "content-security-policy" && name !== "content-type");
+    return { status: 304, headers: headers.map(([name, value]) => [name, withNonce(value)]), body: null };
+  }
+  const body = keptDocument(page.key, nonce);
+  if (!body) return undefined;
+  return { status: 200, headers: page.headers.map(([name, value]) => [name, withNonce(value)]), body };
 }
