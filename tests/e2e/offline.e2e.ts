@@ -313,16 +313,21 @@ it("a tick queued by one reader is never sent with the session of whoever signs 
   expect(second.errors).toEqual([]);
 });
 
-it("the checklist page is kept with its guide: ticks and notes made on it without signal survive a reload and reach the server in order", async () => {
+/** The demo reader, signed in at 360 px with no checklist of the guide, on the guide page the worker controls. */
+async function readerOnGuide() {
   const browser = await launchBrowser({ viewport: { width: 360, height: 780 } });
   context = browser;
   const { page, errors } = await openPage(browser);
   await signIn(page, "reader@torqueleaf.test");
   await dropChecklistsOfGuide(browser);
-
   await page.goto(GUIDE);
   await settle(page);
   await controlled(page);
+  return { browser, page, errors };
+}
+
+it("the checklist page is kept with its guide: ticks and notes made on it without signal survive a reload and reach the server in order", async () => {
+  const { browser, page, errors } = await readerOnGuide();
   await page.getByRole("button", { name: "Save a parts checklist", exact: true }).click();
   await page.waitForURL(/\/me\/checklists\/\d+$/);
   const id = Number(new URL(page.url()).pathname.split("/").at(-1));
@@ -404,14 +409,7 @@ it("the checklist page is kept with its guide: ticks and notes made on it withou
 });
 
 it("a checklist saved after its guide was kept is kept with it, and a change the server refused when it was sent later is shown with the reason", async () => {
-  const browser = await launchBrowser({ viewport: { width: 360, height: 780 } });
-  context = browser;
-  const { page, errors } = await openPage(browser);
-  await signIn(page, "reader@torqueleaf.test");
-  await dropChecklistsOfGuide(browser);
-  await page.goto(GUIDE);
-  await settle(page);
-  await controlled(page);
+  const { browser, page, errors } = await readerOnGuide();
   await page.getByRole("button", { name: "Keep on this device", exact: true }).click();
   await page.getByText("Kept on this device: it opens here without signal.").waitFor();
 
