@@ -131,9 +131,8 @@ export default function handleRequest(
  * credentials, from a page kept for the same address under the content stamps as they are now, or
  * undefined (React Router answers it). See document-cache.server.ts.
  */
-export async function anonymousPage(path: string, ifNoneMatch: string | undefined): Promise<AnonymousAnswer | undefined> {
-  const stamps = await readContentStamps(await getDb());
-  return anonymousAnswer(path, ifNoneMatch, stamps, createNonce());
+export function anonymousPage(path: string, ifNoneMatch: string | undefined): Promise<AnonymousAnswer | undefined> {
+  return anonymousAnswer(path, ifNoneMatch, async () => readContentStamps(await getDb()), createNonce);
 }
 
 /** The document: the router with this answer's nonce and the HTML fragments rendered beside the data. */

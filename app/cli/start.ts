@@ -49,10 +49,7 @@ const build = await import(new URL("../../build/server/index.js", import.meta.ur
 // A reader page asked for with no cookie and no credentials, already rendered for the same address
 // under the content as it is now, is answered as it was (with a fresh nonce) before React Router
 // runs: its loaders would give the same data (document-cache.server.ts).
-const anonymousPage = build.entry.module.anonymousPage as (
-  path: string,
-  ifNoneMatch: string | undefined,
-) => Promise<{ status: number; headers: [string, string][]; body: Uint8Array | null } | undefined>;
+const anonymousPage = build.entry.module.anonymousPage as typeof import("../entry.server").anonymousPage;
 app.use((req, res, next) => {
   if (req.method !== "GET" || req.headers.cookie !== undefined || req.headers.authorization !== undefined) return next();
   anonymousPage(req.url, req.headers["if-none-match"]).then((answer) => {

@@ -31,10 +31,13 @@ export function useDocumentJson(id: string, json: string | null): string {
   return typeof document === "undefined" ? "null" : (document.getElementById(id)?.textContent ?? "null");
 }
 
+/** `value` as JSON for a data block (`DocumentJson`): every `<` written `\u003c`, still the same JSON. */
+export const dataBlockJson = (value: unknown): string => JSON.stringify(value).replaceAll("<", "\\u003c");
+
 /**
  * A page's data as a JSON data block, once in the document instead of inside React Router's
  * hand-off script (where it would be escaped twice and encoded again on every request). The JSON
- * must have every `<` written as `\u003c`, so no text in it can end the element. Browsers do not
+ * is made by `dataBlockJson`, so no text in it can end the element. Browsers do not
  * run a data block; it carries the nonce all the same, as every script element of the page does.
  */
 export function DocumentJson({ id }: { id: string }) {

@@ -169,12 +169,6 @@ export async function fitmentTallies(db: Db, guideId: number): Promise<FitmentTa
   }));
 }
 
-/** The tallies per slug for the public API, or null when no published guide has that slug. */
-export async function fitmentTalliesBySlug(db: Db, slug: string) {
-  const [guide] = await db.select({ id: guides.id }).from(guides).where(eq(guides.slug, slug));
-  return guide ? fitmentTallies(db, guide.id) : [];
-}
-
 export type ShownReport = {
   id: number;
   variantId: number;

@@ -30,12 +30,17 @@ type LibraryAnswer = Awaited<ReturnType<typeof listFromIndex>>;
 const LIBRARY_ANSWERS_KEPT = 500;
 const libraryAnswers = new BoundedCache<string, LibraryAnswer>(LIBRARY_ANSWERS_KEPT);
 
+/** What a Library answer is kept by: the query and the stamps it depends on. */
+export function libraryKey(query: LibraryQuery, stamps: ContentStamps): string {
+  // The "most reported fits" order changes with readers' reports too.
+  const reports = query.sort === "fits" ? stamps.reports : "";
+  return `${stamps.guides}.${stamps.catalogue}.${reports}:${JSON.stringify(query)}`;
+}
+
 /** The Library's answer (from its in-memory index), kept per query and content stamp. */
 export async function readLibrary(db: Db, query: LibraryQuery, stamps?: ContentStamps): Promise<LibraryAnswer> {
   const now = stamps ?? (await readContentStamps(db));
-  // The "most reported fits" order changes with readers' reports too.
-  const reports = query.sort === "fits" ? now.reports : "";
-  const key = `${now.guides}.${now.catalogue}.${reports}:${JSON.stringify(query)}`;
+  const key = libraryKey(query, now);
   let answer = libraryAnswers.get(key);
   if (!answer) {
     answer = await listFromIndex(db, query, now);

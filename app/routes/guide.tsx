@@ -1,5 +1,5 @@
 import { FitmentReports } from "~/components/fitment-reports";
-import { DocumentJson, useDocumentJson } from "~/components/document-html";
+import { DocumentJson, dataBlockJson, useDocumentJson } from "~/components/document-html";
 import { GuideArticle, type ShownGuide, stepBodyId } from "~/components/guide-article";
 import { KeepOnDevice } from "~/components/keep-on-device";
 import { GuideVehicleLine } from "~/components/vehicle-fitment-line";
@@ -56,7 +56,6 @@ function stepHtmlShown(html: string) {
 const guideJson = new WeakMap<object, Map<string, string>>();
 
 function shownGuideJson(found: PublishedGuide, document: boolean, bodies: string[]): string {
-  // A document's JSON goes into a data block: no "<" in it may end the element.
   const row = JSON.stringify([document, found.id, found.slug, found.author, found.publishedAt]);
   const byRow = guideJson.get(found.steps) ?? new Map<string, string>();
   guideJson.set(found.steps, byRow);
@@ -66,7 +65,8 @@ function shownGuideJson(found: PublishedGuide, document: boolean, bodies: string
       ...found,
       steps: found.steps.map(({ html: _html, ...step }, i) => ({ ...step, html: document ? undefined : bodies[i] })),
     };
-    json = document ? JSON.stringify(guide).replaceAll("<", "\\u003c") : JSON.stringify(guide);
+    // A document's JSON goes into a data block (DocumentJson).
+    json = document ? dataBlockJson(guide) : JSON.stringify(guide);
     byRow.set(row, json);
   }
   return json;

@@ -1,6 +1,6 @@
 import { type FormEvent, useEffect, useRef, useState } from "react";
 import { Form, Link, redirect, useLocation, useNavigate, useNavigation } from "react-router";
-import { DocumentJson, useDocumentJson } from "~/components/document-html";
+import { DocumentJson, dataBlockJson, useDocumentJson } from "~/components/document-html";
 import { FitmentSummary } from "~/components/fitment";
 import { documentFragmentsContext } from "~/services/http/document-fragments.server";
 import { isDocumentRequest } from "~/services/http/request-kind.server";
@@ -19,7 +19,7 @@ import {
   withoutFilter,
 } from "~/models/library.server";
 import { type ContentStamps, readRequestStamps } from "~/models/content-stamps.server";
-import { readCatalogue, readLibrary } from "~/models/reader-cache.server";
+import { libraryKey, readCatalogue, readLibrary } from "~/models/reader-cache.server";
 import type { CatalogueTree } from "~/models/catalogue.server";
 import {
   CATEGORIES,
@@ -70,12 +70,11 @@ export async function loader({ request, context }: Route.LoaderArgs) {
   query.for ??= query.fits ? undefined : (await currentVehicle({ request, context }, db))?.variantId;
   // The year as typed, so a year the catalogue does not cover stays in the box to be corrected.
   const yearText = (params.get("year") ?? "").slice(0, 20);
-  // The "most reported fits" order changes with readers' reports too.
-  const key = `${stamps.guides}.${stamps.catalogue}.${query.sort === "fits" ? stamps.reports : ""}:${yearText}:${JSON.stringify(query)}`;
+  const key = `${yearText}:${libraryKey(query, stamps)}`;
   let page = pageJson.get(key);
   if (page === undefined) {
-    // Every "<" escaped: the same JSON goes into a document as a data block (DocumentJson).
-    page = JSON.stringify(await libraryPage(db, query, stamps, yearText)).replaceAll("<", "\\u003c");
+    // The same JSON goes into a document as a data block (DocumentJson).
+    page = dataBlockJson(await libraryPage(db, query, stamps, yearText));
     pageJson.set(key, page);
   }
   // A document carries the data once, as a data block; a navigation's data carries it.

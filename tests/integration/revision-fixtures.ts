@@ -2,7 +2,7 @@ import { eq } from "drizzle-orm";
 import type { Db } from "~/db/client.server";
 import { guides } from "~/db/schema";
 import { type DraftInput, draftInputSchema } from "~/models/guide-input";
-import { type LoadedRevision, loadRevision } from "~/models/guides.server";
+import { type LoadedRevision, loadRevision, partsAndTools } from "~/models/guides.server";
 import { findUserByEmail } from "~/models/users.server";
 
 /** The draft input that would save `loaded` again as it is (what the editor sends back). */
@@ -24,14 +24,7 @@ export function draftFrom(loaded: LoadedRevision): DraftInput {
       callouts: s.callouts.map((c) => ({ kind: c.kind, ...c.data })),
     })),
     fitment: loaded.fitment.map((f) => ({ variantId: f.variantId, status: f.status, note: f.note })),
-    parts: loaded.parts.map((p) => ({
-      name: p.name,
-      quantity: p.quantity,
-      partNumber: p.partNumber,
-      notes: p.notes,
-      stepIndex: p.stepIndex,
-    })),
-    tools: loaded.tools.map((t) => ({ name: t.name })),
+    ...partsAndTools(loaded),
   });
 }
 
