@@ -9,15 +9,8 @@ import { DocumentFragments } from "./components/document-html";
 import { CspNonce } from "./services/http/csp";
 import { getDb } from "./db/client.server";
 import { readContentStamps, requestStampsOf } from "./models/content-stamps.server";
-import {
-  type AnonymousAnswer,
-  anonymousAnswer,
-  documentKey,
-  keepDocument,
-  keptDocument,
-  NONCE_STAND_IN,
-  noteAnonymousPage,
-} from "./services/http/document-cache.server";
+import { type AnonymousAnswer, anonymousAnswer, noteAnonymousPage } from "./services/http/anonymous-answers.server";
+import { documentKey, keepDocument, keptDocument, NONCE_STAND_IN } from "./services/http/document-cache.server";
 import { documentFragments } from "./services/http/document-fragments.server";
 import { createNonce, documentNonce } from "./services/http/security-headers.server";
 import { matchesEtag, PUBLIC_CACHE_CONTROL } from "./utils/http.server";
@@ -128,10 +121,10 @@ export default function handleRequest(
 
 /**
  * For the production server (app/cli/start.ts): the answer to a GET that carries no cookie and no
- * credentials, from a page kept for the same address under the content stamps as they are now, or
- * undefined (React Router answers it). See document-cache.server.ts.
+ * credentials, from a page or public API answer noted for the same address under the content
+ * stamps as they are now, or undefined (React Router answers it). See anonymous-answers.server.ts.
  */
-export function anonymousPage(path: string, ifNoneMatch: string | undefined): Promise<AnonymousAnswer | undefined> {
+export function notedAnswer(path: string, ifNoneMatch: string | undefined): Promise<AnonymousAnswer | undefined> {
   return anonymousAnswer(path, ifNoneMatch, async () => readContentStamps(await getDb()), createNonce);
 }
 

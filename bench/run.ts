@@ -253,6 +253,7 @@ try {
     await runModels(demo.databaseFile, plan.modelRuns);
   } else if (scalePath) {
     await buildTorqueleaf();
+    await buildIfStale(BARE_DIR, bareInputs, rebuild);
     console.log(`before: ${await steadiness()}`);
     await runScale(scalePath, {
       port: TORQUELEAF_PORT + 1,
@@ -260,6 +261,7 @@ try {
       budgetMs: plan.scaleBudgetMs,
       caseLimitMs: plan.scaleCaseLimitMs,
       httpSeconds: plan.scaleHttpSeconds,
+      bare: () => startBare(BARE_PORT),
       onCleanup: (step) => cleanups.push(step),
     });
     console.log(`\nafter: ${await steadiness()}`);

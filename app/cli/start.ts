@@ -46,13 +46,13 @@ const serveRootFile = express.static("build/client", { maxAge: "1h", index: fals
 app.use((req, res, next) => (rootNames.has(req.path.split("/")[1] ?? "") ? serveRootFile(req, res, next) : next()));
 // Imported once: a function here would run the module loader on every request.
 const build = await import(new URL("../../build/server/index.js", import.meta.url).href);
-// A reader page asked for with no cookie and no credentials, already rendered for the same address
-// under the content as it is now, is answered as it was (with a fresh nonce) before React Router
-// runs: its loaders would give the same data (document-cache.server.ts).
-const anonymousPage = build.entry.module.anonymousPage as typeof import("../entry.server").anonymousPage;
+// A reader page or public API answer asked for with no cookie and no credentials, already answered
+// for the same address under the content as it is now, is answered as it was (a page with a fresh
+// nonce) before React Router runs: its loaders would give the same data (anonymous-answers.server.ts).
+const notedAnswer = build.entry.module.notedAnswer as typeof import("../entry.server").notedAnswer;
 app.use((req, res, next) => {
   if (req.method !== "GET" || req.headers.cookie !== undefined || req.headers.authorization !== undefined) return next();
-  anonymousPage(req.url, req.headers["if-none-match"]).then((answer) => {
+  notedAnswer(req.url, req.headers["if-none-match"]).then((answer) => {
     if (!answer) return next();
     res.statusCode = answer.status;
     // Through Express, as React Router's adapter sets them (a text type gets its charset).

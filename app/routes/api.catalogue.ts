@@ -4,15 +4,16 @@ import { catalogueIntentSchema } from "~/models/catalogue-input";
 import { publicCatalogue } from "~/models/catalogue.server";
 import { readCatalogue } from "~/models/reader-cache.server";
 import { requirePermission } from "~/services/auth/guards.server";
-import { apiHandler, publicJson } from "~/utils/http.server";
+import { readContentStamps } from "~/models/content-stamps.server";
+import { anonymousJson } from "~/services/http/anonymous-answers.server";
+import { apiHandler } from "~/utils/http.server";
 import { applyCatalogueChange } from "./admin.catalogue.server";
 import { methodNotAllowed, PRIVATE_JSON, readAuthoringJson } from "./authoring-api.server";
 
 export async function loader({ request }: Route.LoaderArgs) {
-  const makes = await readCatalogue(await getDb());
-  return publicJson(request, {
-    makes: publicCatalogue(makes),
-  });
+  const db = await getDb();
+  const stamps = await readContentStamps(db);
+  return anonymousJson(request, stamps, { makes: publicCatalogue(await readCatalogue(db, stamps)) });
 }
 
 /**

@@ -5,7 +5,8 @@ import { getPublishedGuide } from "~/models/library.server";
 import { unpublishedGuide } from "~/models/review-desk.server";
 import { getStorage } from "~/services/storage.server";
 import { AppError } from "~/utils/errors";
-import { apiHandler, publicJson } from "~/utils/http.server";
+import { anonymousJson } from "~/services/http/anonymous-answers.server";
+import { apiHandler } from "~/utils/http.server";
 import type { Route } from "./+types/api.guide";
 
 export const loader = apiHandler(async ({ params, request }: Route.LoaderArgs) => {
@@ -26,7 +27,7 @@ export const loader = apiHandler(async ({ params, request }: Route.LoaderArgs) =
   // Readers' reports per variant, hidden ones not counted; a new report changes the answer's ETag.
   const { tallies } = await publicReports(db, id, stamps);
   const fitmentReports = tallies.map(({ vehicle: _name, ...tally }) => tally);
-  return publicJson(request, {
+  return anonymousJson(request, stamps, {
     ...rest,
     steps: rest.steps.map(({ callouts, ...step }) => ({
       ...step,

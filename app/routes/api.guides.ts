@@ -3,14 +3,18 @@ import { guideMetaSchema } from "~/models/guide-input";
 import { createGuide } from "~/models/guides.server";
 import { parseLibraryQuery } from "~/models/library.server";
 import { readLibrary } from "~/models/reader-cache.server";
-import { apiHandler, publicJson } from "~/utils/http.server";
+import { readContentStamps } from "~/models/content-stamps.server";
+import { anonymousJson } from "~/services/http/anonymous-answers.server";
+import { apiHandler } from "~/utils/http.server";
 import { assertCan } from "~/utils/permissions";
 import type { Route } from "./+types/api.guides";
 import { apiUser, methodNotAllowed, PRIVATE_JSON, readAuthoringJson } from "./authoring-api.server";
 
 export const loader = apiHandler(async ({ request }: Route.LoaderArgs) => {
   const query = parseLibraryQuery(new URL(request.url).searchParams);
-  return publicJson(request, await readLibrary(await getDb(), query));
+  const db = await getDb();
+  const stamps = await readContentStamps(db);
+  return anonymousJson(request, stamps, await readLibrary(db, query, stamps));
 });
 
 /**

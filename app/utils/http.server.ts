@@ -67,7 +67,8 @@ export function etagListed(header: string | null | undefined, etag: string): boo
 // A body kept in a reader cache is the same object on every request (callers never change what a
 // cache gives them): its text and ETag are made once and live as long as the object does.
 const serializedBodies = new WeakMap<object, { text: string; etag: string }>();
-function serialized(body: object) {
+/** A public JSON answer's text and its weak ETag, made once per body object. */
+export function serializedJson(body: object): { text: string; etag: string } {
   let done = serializedBodies.get(body);
   if (!done) {
     const text = JSON.stringify(body);
@@ -82,7 +83,7 @@ function serialized(body: object) {
  * them on the way) and PUBLIC_CACHE_CONTROL; a request that names the ETag gets 304 and no body.
  */
 export function publicJson(request: Request, body: object): Response {
-  const { text, etag } = serialized(body);
+  const { text, etag } = serializedJson(body);
   const headers = { ETag: etag, "Cache-Control": PUBLIC_CACHE_CONTROL };
   if (matchesEtag(request, etag)) return new Response(null, { status: 304, headers });
   return new Response(text, { headers: { ...headers, "Content-Type": "application/json" } });

@@ -170,6 +170,26 @@ describe("a page for a signed-in member", () => {
 });
 
 describe("answers of the public API", () => {
+  it("are answered alike every time (the answer as it was noted, before React Router runs): the same headers and bytes", async () => {
+    // Addresses nothing above asked for: each first answer comes from React Router, the next from the note.
+    const paths = ["/api/guides?difficulty=2", "/api/guides/kestrel-rear-recovery-points", "/api/catalogue"];
+    for (const path of paths) {
+      const [a, b] = [await client.get(path), await client.get(path)];
+      const headersOf = (response: Response) =>
+        [...response.headers]
+          .filter(([name]) => !["date", "keep-alive", "connection", "content-security-policy"].includes(name))
+          .sort();
+      expect(a.status).toBe(200);
+      expect(headersOf(b)).toEqual(headersOf(a));
+      expect(a.headers.get("content-type")).toBe("application/json; charset=utf-8");
+      expect(await b.text()).toBe(await a.text());
+      // Every answer has a policy of its own (CSP Level 3 §2.3.1), the noted ones included.
+      const [policyA, policyB] = [a.headers.get("content-security-policy"), b.headers.get("content-security-policy")];
+      expect(policyB?.replaceAll(/'nonce-[^']+'/g, "")).toBe(policyA?.replaceAll(/'nonce-[^']+'/g, ""));
+      expect(nonceOf(b)).not.toBe(nonceOf(a));
+    }
+  });
+
   it.each([["/api/guides"], [`/api/guides/${SLUG}`], ["/api/catalogue"]])(
     "%s may be kept and is answered 304 for its ETag",
     async (path) => {

@@ -1,8 +1,6 @@
 import { createHash, randomBytes } from "node:crypto";
 import type { EntryContext } from "react-router";
-import type { ContentStamps } from "~/models/content-stamps.server";
 import { BoundedCache } from "~/utils/bounded-cache";
-import { etagListed } from "~/utils/http.server";
 
 /**
  * Rendered documents for readers who are not signed in, kept by what they were rendered from: the
@@ -110,67 +108,4 @@ export function keptDocument(key: string, nonce: string): Uint8Array<ArrayBuffer
 export function keepDocument(key: string, html: string): void {
   const parts = html.split(NONCE_STAND_IN).map((part) => Buffer.from(part));
   documents.set(key, { parts, bytes: parts.reduce((n, part) => n + part.length, 0) });
-}
-
-/**
- * For a request with no cookie and no credentials at all, a kept page's whole answer depends only
- * on its address and the content stamps its loader read (nobody is signed in, no message waits, no
- * vehicle is picked): each answer of that kind is noted here by its address, with those stamps, and
- * the next such request for the same address under the same stamps is answered from it before React
- * Router runs (app/cli/start.ts) with a fresh nonce. Any change to the content moves a stamp, so the
- * next request renders afresh. An address nothing is noted for costs no read of the stamps.
- */
-type AnonymousPage = { stamps: string; key: string; etag: string; headers: [string, string][] };
-const ANONYMOUS_PAGES_KEPT = 4096;
-const anonymousPages = new BoundedCache<string, AnonymousPage>(ANONYMOUS_PAGES_KEPT);
-
-const addressOf = (url: URL) => `${url.pathname}${url.search}`;
-const stampsKey = (stamps: ContentStamps) => `${stamps.guides}.${stamps.catalogue}.${stamps.reports}`;
-
-/** A request that carries nothing of anybody: its page is the same for everyone. */
-export const isAnonymous = (headers: { has(name: string): boolean }) => !headers.has("cookie") && !headers.has("authorization");
-
-/** Notes a kept page's answer (its headers as sent, with the nonce stand-in) for anonymous requests. */
-export function noteAnonymousPage(
-  request: Request,
-  stamps: ContentStamps | null,
-  kept: { key: string; etag: string },
-  headers: Headers,
-  nonce: string,
-): void {
-  if (!stamps || !isAnonymous(request.headers)) return;
-  const template: [string, string][] = [...headers].map(([name, value]) => [name, value.replaceAll(nonce, NONCE_STAND_IN)]);
-  anonymousPages.set(addressOf(new URL(request.url)), {
-    stamps: stampsKey(stamps),
-    key: kept.key,
-    etag: kept.etag,
-    headers: template,
-  });
-}
-
-export type AnonymousAnswer = { status: 200 | 304; headers: [string, string][]; body: Uint8Array | null };
-
-/**
- * The answer to an anonymous GET of `path` (with its query), if one was noted for it under the stamps
- * as they are now (`readStamps`, asked only then) and its document is still kept, with a nonce of
- * its own (`newNonce`); else undefined, and React Router answers.
- */
-export async function anonymousAnswer(
-  path: string,
-  ifNoneMatch: string | undefined,
-  readStamps: () => Promise<ContentStamps>,
-  newNonce: () => string,
-): Promise<AnonymousAnswer | undefined> {
-  const page = anonymousPages.get(addressOf(new URL(path, "http://torqueleaf.invalid")));
-  if (!page || page.stamps !== stampsKey(await readStamps())) return undefined;
-  const nonce = newNonce();
-  const withNonce = (value: string) => value.replaceAll(NONCE_STAND_IN, nonce);
-  if (etagListed(ifNoneMatch, page.etag)) {
-    // As React Router's answer would be: the browser keeps the policy that came with its page.
-    const headers = page.headers.filter(([name]) => name !== "content-security-policy" && name !== "content-type");
-    return { status: 304, headers: headers.map(([name, value]) => [name, withNonce(value)]), body: null };
-  }
-  const body = keptDocument(page.key, nonce);
-  if (!body) return undefined;
-  return { status: 200, headers: page.headers.map(([name, value]) => [name, withNonce(value)]), body };
 }
