@@ -9,7 +9,12 @@ import { DocumentFragments } from "./components/document-html";
 import { CspNonce } from "./services/http/csp";
 import { getDb } from "./db/client.server";
 import { readContentStamps, requestStampsOf } from "./models/content-stamps.server";
-import { type AnonymousAnswer, anonymousAnswer, noteAnonymousPage } from "./services/http/anonymous-answers.server";
+import {
+  type AnonymousAnswer,
+  anonymousAnswer,
+  notedJsonAnswer,
+  noteAnonymousPage,
+} from "./services/http/anonymous-answers.server";
 import { documentKey, keepDocument, keptDocument, NONCE_STAND_IN } from "./services/http/document-cache.server";
 import { documentFragments } from "./services/http/document-fragments.server";
 import { createNonce, documentNonce } from "./services/http/security-headers.server";
@@ -126,6 +131,14 @@ export default function handleRequest(
  */
 export function notedAnswer(path: string, ifNoneMatch: string | undefined): Promise<AnonymousAnswer | undefined> {
   return anonymousAnswer(path, ifNoneMatch, async () => readContentStamps(await getDb()), createNonce);
+}
+
+/**
+ * For the production server's Node listener (app/cli/start.ts), before Express: a public API answer
+ * noted for the same address under the content stamps as they are now, or undefined.
+ */
+export function notedJson(path: string, request: { ifNoneMatch: string | undefined; acceptEncoding: string | undefined }) {
+  return notedJsonAnswer(path, request, async () => readContentStamps(await getDb()), createNonce);
 }
 
 /** The document: the router with this answer's nonce and the HTML fragments rendered beside the data. */

@@ -1,10 +1,11 @@
 import { readdirSync } from "node:fs";
+import { createServer, type IncomingMessage } from "node:http";
 import compression from "compression";
 import express from "express";
 import { createRequestHandler } from "@react-router/express";
 import { stampPeerAddress } from "~/services/auth/client-address.server";
 import { bodyLimit } from "~/services/http/body-limit.server";
-import { refuseUnsupportedMethods } from "~/services/http/request-shape.server";
+import { originFormTargets, refuseUnsupportedMethods } from "~/services/http/request-shape.server";
 import { stampRequestKind } from "~/services/http/request-kind.server";
 import { securityHeadersLayer } from "~/services/http/security-headers.server";
 import { getDb } from "~/db/client.server";
@@ -25,6 +26,7 @@ const app = express();
 // Security headers on every answer, static files included, and 405 for methods the app never serves.
 app.use(securityHeadersLayer());
 app.use(refuseUnsupportedMethods());
+app.use(originFormTargets());
 app.disable("x-powered-by");
 if (settings.TRUST_PROXY) app.set("trust proxy", 1);
 // Oversized bodies are refused before anything reads them.
@@ -46,9 +48,11 @@ const serveRootFile = express.static("build/client", { maxAge: "1h", index: fals
 app.use((req, res, next) => (rootNames.has(req.path.split("/")[1] ?? "") ? serveRootFile(req, res, next) : next()));
 // Imported once: a function here would run the module loader on every request.
 const build = await import(new URL("../../build/server/index.js", import.meta.url).href);
-// A reader page or public API answer asked for with no cookie and no credentials, already answered
-// for the same address under the content as it is now, is answered as it was (a page with a fresh
-// nonce) before React Router runs: its loaders would give the same data (anonymous-answers.server.ts).
+// A reader page asked for with no cookie and no credentials, already answered for the same address
+// under the content as it is now, is answered as it was, with a fresh nonce, before React Router
+// runs: its loaders would give the same data (anonymous-answers.server.ts). Through Express, since
+// the markup differs by its nonce and is compressed per answer. (A public API answer noted the same
+// way usually never gets here: see the Node listener below.)
 const notedAnswer = build.entry.module.notedAnswer as typeof import("../entry.server").notedAnswer;
 app.use((req, res, next) => {
   if (req.method !== "GET" || req.headers.cookie !== undefined || req.headers.authorization !== undefined) return next();
@@ -62,10 +66,35 @@ app.use((req, res, next) => {
 });
 app.use(createRequestHandler({ build }));
 
+// A public API answer noted the same way has the same bytes for everyone: Node's server sends it
+// before Express runs, so no middleware is spent on it. A request with a body goes through Express
+// (its size limit), and so does anything not noted.
+const notedJson = build.entry.module.notedJson as typeof import("../entry.server").notedJson;
+const mayBeNoted = (req: IncomingMessage) =>
+  req.method === "GET" &&
+  req.headers.cookie === undefined &&
+  req.headers.authorization === undefined &&
+  req.headers["transfer-encoding"] === undefined &&
+  (req.headers["content-length"] ?? "0") === "0";
+const node = createServer((req, res) => {
+  if (!mayBeNoted(req)) return app(req, res);
+  notedJson(req.url ?? "/", { ifNoneMatch: req.headers["if-none-match"], acceptEncoding: req.headers["accept-encoding"] }).then(
+    (answer) => {
+      if (!answer) return app(req, res);
+      res.writeHead(answer.status, answer.headers);
+      res.end(answer.body ?? undefined);
+    },
+    (error: unknown) => {
+      console.error(error);
+      app(req, res);
+    },
+  );
+});
+
 const listening = () =>
   console.log(`Torqueleaf is serving ${settings.APP_ORIGIN} (${settings.HOST || "every interface"}, port ${settings.PORT})`);
 // HOST empty: every interface.
-const server = settings.HOST ? app.listen(settings.PORT, settings.HOST, listening) : app.listen(settings.PORT, listening);
+const server = settings.HOST ? node.listen(settings.PORT, settings.HOST, listening) : node.listen(settings.PORT, listening);
 // Hourly: photos no draft uses for 24 h go, with their objects. Unref'd: it never keeps the process up.
 setInterval(
   () =>

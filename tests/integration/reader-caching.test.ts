@@ -1,3 +1,4 @@
+import { connect } from "node:net";
 import { createClient } from "@libsql/client";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { TestClient } from "../support/http-client";
@@ -42,6 +43,9 @@ async function writeBehindTheApp(statement: string, args: (string | number)[] = 
     db.close();
   }
 }
+
+const headersOf304 = (response: Response) =>
+  [...response.headers].filter(([name]) => !["date", "keep-alive", "connection"].includes(name)).sort();
 
 const nonceOf = (response: Response) => /'nonce-([^']+)'/.exec(response.headers.get("content-security-policy") ?? "")?.[1];
 
@@ -170,24 +174,46 @@ describe("a page for a signed-in member", () => {
 });
 
 describe("answers of the public API", () => {
-  it("are answered alike every time (the answer as it was noted, before React Router runs): the same headers and bytes", async () => {
-    // Addresses nothing above asked for: each first answer comes from React Router, the next from the note.
-    const paths = ["/api/guides?difficulty=2", "/api/guides/kestrel-rear-recovery-points", "/api/catalogue"];
-    for (const path of paths) {
-      const [a, b] = [await client.get(path), await client.get(path)];
-      const headersOf = (response: Response) =>
-        [...response.headers]
-          .filter(([name]) => !["date", "keep-alive", "connection", "content-security-policy"].includes(name))
-          .sort();
+  it("are answered alike every time (the answer as it was noted, before Express runs): the same headers and content, in each encoding", async () => {
+    // Addresses nothing above asked for: each first answer comes through React Router, the next from the note.
+    // Content codings: RFC 9110 §8.4.1 and §12.5.3 (br is RFC 7932); undefined is fetch's own header.
+    const cases: [string, string | undefined][] = [
+      ["/api/guides?difficulty=2", undefined],
+      ["/api/guides?difficulty=1", "identity"],
+      ["/api/guides?difficulty=3", "br"],
+      ["/api/guides/kestrel-rear-recovery-points", "gzip"],
+      ["/api/catalogue", undefined],
+    ];
+    // Framing differs by path (a streamed answer is chunked), not what the answer says.
+    const framing = ["date", "keep-alive", "connection", "content-length", "transfer-encoding", "content-security-policy"];
+    const headersOf = (response: Response) => [...response.headers].filter(([name]) => !framing.includes(name)).sort();
+    for (const [path, encoding] of cases) {
+      const init = encoding ? { headers: { "accept-encoding": encoding } } : undefined;
+      const [a, b] = [await client.get(path, init), await client.get(path, init)];
       expect(a.status).toBe(200);
       expect(headersOf(b)).toEqual(headersOf(a));
       expect(a.headers.get("content-type")).toBe("application/json; charset=utf-8");
+      if (encoding && encoding !== "identity") expect(b.headers.get("content-encoding")).toBe(encoding);
+      if (encoding === "identity") expect(b.headers.get("content-encoding")).toBeNull();
       expect(await b.text()).toBe(await a.text());
       // Every answer has a policy of its own (CSP Level 3 §2.3.1), the noted ones included.
       const [policyA, policyB] = [a.headers.get("content-security-policy"), b.headers.get("content-security-policy")];
       expect(policyB?.replaceAll(/'nonce-[^']+'/g, "")).toBe(policyA?.replaceAll(/'nonce-[^']+'/g, ""));
       expect(nonceOf(b)).not.toBe(nonceOf(a));
     }
+  });
+
+  it("a noted answer named by its ETag is 304, with the same headers as React Router's 304", async () => {
+    const path = "/api/guides?difficulty=4";
+    const etag = (await client.get(path)).headers.get("etag") ?? "";
+    // The first 304 for a new address: "?difficulty=4&" asks the same, and nothing is noted for it yet.
+    const [routed, noted] = [
+      await client.get(`${path}&`, { headers: { "if-none-match": etag } }),
+      await client.get(path, { headers: { "if-none-match": etag } }),
+    ];
+    expect([routed.status, noted.status]).toEqual([304, 304]);
+    expect(headersOf304(noted)).toEqual(headersOf304(routed));
+    expect(noted.headers.get("content-security-policy")).toBeNull();
   });
 
   it.each([["/api/guides"], [`/api/guides/${SLUG}`], ["/api/catalogue"]])(
@@ -265,5 +291,45 @@ describe("a change to the content", () => {
     await writeBehindTheApp("UPDATE guides SET title = 'Newly titled hood lamps' WHERE slug = ?", [SLUG]);
     expect((await listed()).some((g) => g.title === "Newly titled hood lamps")).toBe(true);
     expect(await (await client.get("/")).text()).toContain("Newly titled hood lamps");
+  });
+});
+
+describe("request targets that are not a plain path", () => {
+  /** One raw HTTP/1.1 request, as a client that sends its target unparsed would (RFC 9112 §3.2). */
+  function rawStatus(target: string): Promise<number> {
+    return new Promise((resolve, reject) => {
+      const socket = connect(app.port, "127.0.0.1", () => {
+        socket.write(`GET ${target} HTTP/1.1\r\nHost: localhost:${app.port}\r\nConnection: close\r\n\r\n`);
+      });
+      let head = "";
+      socket.on("data", (chunk) => {
+        head += chunk.toString("latin1");
+      });
+      socket.on("end", () => resolve(Number(/^HTTP\/1\.1 (\d{3})/.exec(head)?.[1] ?? 0)));
+      socket.on("error", reject);
+    });
+  }
+
+  it("never fail the server: each gets an answer below 500", async () => {
+    await client.get("/api/guides");
+    for (const target of [
+      "/\\[",
+      "/\\\\evil/api/guides",
+      "//api/guides",
+      "http://[/api/guides",
+      "/api/guides?%",
+      "*",
+      "localhost:1",
+    ]) {
+      const status = await rawStatus(target);
+      expect(status, target).toBeGreaterThanOrEqual(200);
+      expect(status, target).toBeLessThan(500);
+    }
+  });
+
+  it("an absolute form is read as its path (RFC 9112 §3.2.2); the asterisk form is refused (§3.2.4: OPTIONS only)", async () => {
+    expect(await rawStatus(`http://localhost:${app.port}/api/guides`)).toBe(200);
+    expect(await rawStatus(`http://localhost:${app.port}/guides/${SLUG}`)).toBe(200);
+    expect(await rawStatus("*")).toBe(400);
   });
 });

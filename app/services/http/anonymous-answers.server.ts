@@ -1,7 +1,11 @@
+import { brotliCompressSync, constants as zlibConstants, deflateSync, gzipSync } from "node:zlib";
 import type { ContentStamps } from "~/models/content-stamps.server";
 import { BoundedCache } from "~/utils/bounded-cache";
 import { etagListed, PUBLIC_CACHE_CONTROL, publicJson, serializedJson } from "~/utils/http.server";
+import { type ContentCoding, chosenEncoding } from "~/utils/content-coding";
+import { env } from "~/utils/env.server";
 import { keptDocument, NONCE_STAND_IN } from "./document-cache.server";
+import { securityHeaders } from "./security-headers.server";
 
 /**
  * For a request with no cookie and no credentials at all, a reader page's whole answer, and a
@@ -20,7 +24,7 @@ type Noted = {
   etag: string;
   /** As set by the app, with NONCE_STAND_IN where a page's nonce went. */
   headers: [string, string][];
-  body: { document: string } | { bytes: Buffer };
+  body: { document: string } | { bytes: Buffer; encoded?: Partial<Record<ContentCoding, Buffer>> };
 };
 
 /** Some 4,000 pages' notes (their markup is kept by document-cache.server.ts), or fewer with API bodies. */
@@ -31,6 +35,12 @@ const noted = new BoundedCache<string, Noted>(NOTED_BYTES, (note) =>
 );
 
 const addressOf = (url: URL) => `${url.pathname}${url.search}`;
+
+/** The note for a request target as the server got it; a target that is no URL path has none. */
+function noteFor(target: string): Noted | undefined {
+  if (!URL.canParse(target, "http://torqueleaf.invalid")) return undefined;
+  return noted.get(addressOf(new URL(target, "http://torqueleaf.invalid")));
+}
 const stampsKey = (stamps: ContentStamps) => `${stamps.guides}.${stamps.catalogue}.${stamps.reports}`;
 
 /** A request that carries nothing of anybody: its answer is the same for everyone. */
@@ -88,7 +98,7 @@ export async function anonymousAnswer(
   readStamps: () => Promise<ContentStamps>,
   newNonce: () => string,
 ): Promise<AnonymousAnswer | undefined> {
-  const note = noted.get(addressOf(new URL(path, "http://torqueleaf.invalid")));
+  const note = noteFor(path);
   if (!note || note.stamps !== stampsKey(await readStamps())) return undefined;
   const nonce = "document" in note.body ? newNonce() : "";
   const withNonce = (value: string) => (nonce ? value.replaceAll(NONCE_STAND_IN, nonce) : value);
@@ -101,3 +111,52 @@ export async function anonymousAnswer(
   if (!body) return undefined;
   return { status: 200, headers: note.headers.map(([name, value]) => [name, withNonce(value)]), body };
 }
+
+/**
+ * A JSON answer's bytes are the same for every request, so the production server sends a noted one
+ * straight from Node's HTTP server, before Express (app/cli/start.ts): no per-request middleware,
+ * and each encoding made once per note instead of once per answer. Its headers are the ones the
+ * Express path gives it: the security headers (a fresh nonce in the policy, none on a 304),
+ * `Vary: Accept-Encoding`, and the encoding the compression middleware would choose.
+ */
+export async function notedJsonAnswer(
+  path: string,
+  request: { ifNoneMatch: string | undefined; acceptEncoding: string | undefined },
+  readStamps: () => Promise<ContentStamps>,
+  newNonce: () => string,
+): Promise<{ status: 200 | 304; headers: Record<string, string>; body: Buffer | null } | undefined> {
+  const note = noteFor(path);
+  if (!note || !("bytes" in note.body) || note.stamps !== stampsKey(await readStamps())) return undefined;
+  const own = Object.fromEntries(note.headers);
+  if (etagListed(request.ifNoneMatch, note.etag)) {
+    const { "Content-Security-Policy": _policy, ...fixed } = securityHeaders(env(), "");
+    return { status: 304, headers: { ...fixed, ETag: own.ETag, "Cache-Control": own["Cache-Control"] }, body: null };
+  }
+  const body = note.body;
+  const encoding = body.bytes.length < COMPRESSION_THRESHOLD ? "identity" : chosenEncoding(request.acceptEncoding);
+  let bytes = body.bytes;
+  if (encoding !== "identity") {
+    body.encoded ??= {};
+    bytes = body.encoded[encoding] ??= ENCODERS[encoding](body.bytes);
+  }
+  return {
+    status: 200,
+    headers: {
+      ...securityHeaders(env(), newNonce()),
+      ...own,
+      "Content-Type": "application/json; charset=utf-8",
+      Vary: "Accept-Encoding",
+      ...(encoding === "identity" ? {} : { "Content-Encoding": encoding }),
+      "Content-Length": String(bytes.length),
+    },
+    body: bytes,
+  };
+}
+
+/** The compression middleware's settings (compression 1.8): nothing under 1 KB, brotli at quality 4. */
+const COMPRESSION_THRESHOLD = 1024;
+const ENCODERS: Record<ContentCoding, (bytes: Buffer) => Buffer> = {
+  br: (bytes) => brotliCompressSync(bytes, { params: { [zlibConstants.BROTLI_PARAM_QUALITY]: 4 } }),
+  gzip: (bytes) => gzipSync(bytes),
+  deflate: (bytes) => deflateSync(bytes),
+};

@@ -169,6 +169,30 @@ function withAllow(response: Response, allow: string): Response {
 type NodeHandler = (req: IncomingMessage, res: ServerResponse, next: (error?: unknown) => void) => void;
 
 /**
+ * For the Node servers: a request target in absolute form ("http://host/path", RFC 9112 §3.2.2,
+ * which a server must accept) is read as its path and query; any other target that is not a path
+ * (the asterisk form, an authority) is refused with 400. React Router's adapter builds the request's
+ * URL by putting the target after our origin, which fails for those: a 500 otherwise.
+ */
+export function originFormTargets(): NodeHandler {
+  return (req, res, next) => {
+    const target = req.url ?? "";
+    if (target.startsWith("/")) return next();
+    if (/^https?:\/\//i.test(target) && URL.canParse(target)) {
+      const url = new URL(target);
+      // Express keeps the target it got as `originalUrl`, which React Router's adapter reads.
+      const path = `${url.pathname}${url.search}`;
+      Object.assign(req, { url: path, originalUrl: path });
+      return next();
+    }
+    res.statusCode = 400;
+    res.setHeader("Cache-Control", "no-store");
+    res.setHeader("Content-Type", "text/plain; charset=utf-8");
+    res.end("The request target must be a path, such as /api/guides.");
+  };
+}
+
+/**
  * For the Node servers: answers a method the app never serves with 405 before the request reaches
  * React Router, whose Fetch request cannot even be built for TRACE (the Fetch standard forbids it),
  * which would otherwise surface as a 500.

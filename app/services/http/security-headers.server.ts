@@ -6,7 +6,7 @@ import { DIAGRAM_STYLE } from "~/engine/diagram";
 import { authContext } from "~/services/auth/session.server";
 import { hasVehicleCookie } from "~/services/vehicle-cookie.server";
 import { type Env, env } from "~/utils/env.server";
-import { refuseUnsupportedMethods } from "./request-shape.server";
+import { originFormTargets, refuseUnsupportedMethods } from "./request-shape.server";
 
 type Settings = Pick<Env, "APP_ORIGIN" | "S3_PUBLIC_URL" | "GITHUB_BASE_URL">;
 
@@ -231,6 +231,7 @@ export function httpHardeningPlugin() {
     configureServer(server: { middlewares: { use: (fn: NodeHandler) => void } }) {
       server.middlewares.use(securityHeadersLayer());
       server.middlewares.use(refuseUnsupportedMethods());
+      server.middlewares.use(originFormTargets());
     },
   };
 }
