@@ -126,11 +126,11 @@ export default function handleRequest(
 
 /**
  * For the production server (app/cli/start.ts): the answer to a GET that carries no cookie and no
- * credentials, from a page or public API answer noted for the same address under the content
- * stamps as they are now, or undefined (React Router answers it). See anonymous-answers.server.ts.
+ * credentials, from a page noted for the same address under the content stamps as they are now,
+ * or undefined (React Router answers it). See anonymous-answers.server.ts.
  */
 export function notedAnswer(path: string, ifNoneMatch: string | undefined): Promise<AnonymousAnswer | undefined> {
-  return anonymousAnswer(path, ifNoneMatch, async () => readContentStamps(await getDb()), createNonce);
+  return anonymousAnswer(path, ifNoneMatch, stampsNow, createNonce);
 }
 
 /**
@@ -138,8 +138,10 @@ export function notedAnswer(path: string, ifNoneMatch: string | undefined): Prom
  * noted for the same address under the content stamps as they are now, or undefined.
  */
 export function notedJson(path: string, request: { ifNoneMatch: string | undefined; acceptEncoding: string | undefined }) {
-  return notedJsonAnswer(path, request, async () => readContentStamps(await getDb()), createNonce);
+  return notedJsonAnswer(path, request, stampsNow, createNonce);
 }
+
+const stampsNow = async () => readContentStamps(await getDb());
 
 /** The document: the router with this answer's nonce and the HTML fragments rendered beside the data. */
 function documentTree(

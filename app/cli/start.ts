@@ -52,10 +52,17 @@ const build = await import(new URL("../../build/server/index.js", import.meta.ur
 // under the content as it is now, is answered as it was, with a fresh nonce, before React Router
 // runs: its loaders would give the same data (anonymous-answers.server.ts). Through Express, since
 // the markup differs by its nonce and is compressed per answer. (A public API answer noted the same
-// way usually never gets here: see the Node listener below.)
+// way is sent by the Node listener below, before Express.)
 const notedAnswer = build.entry.module.notedAnswer as typeof import("../entry.server").notedAnswer;
+// A GET that carries nothing of anybody and no body (a body goes through Express's size limit).
+const mayBeNoted = (req: IncomingMessage) =>
+  req.method === "GET" &&
+  req.headers.cookie === undefined &&
+  req.headers.authorization === undefined &&
+  req.headers["transfer-encoding"] === undefined &&
+  (req.headers["content-length"] ?? "0") === "0";
 app.use((req, res, next) => {
-  if (req.method !== "GET" || req.headers.cookie !== undefined || req.headers.authorization !== undefined) return next();
+  if (!mayBeNoted(req)) return next();
   notedAnswer(req.url, req.headers["if-none-match"]).then((answer) => {
     if (!answer) return next();
     res.statusCode = answer.status;
@@ -67,15 +74,8 @@ app.use((req, res, next) => {
 app.use(createRequestHandler({ build }));
 
 // A public API answer noted the same way has the same bytes for everyone: Node's server sends it
-// before Express runs, so no middleware is spent on it. A request with a body goes through Express
-// (its size limit), and so does anything not noted.
+// before Express runs, so no middleware is spent on it. Anything not noted goes through Express.
 const notedJson = build.entry.module.notedJson as typeof import("../entry.server").notedJson;
-const mayBeNoted = (req: IncomingMessage) =>
-  req.method === "GET" &&
-  req.headers.cookie === undefined &&
-  req.headers.authorization === undefined &&
-  req.headers["transfer-encoding"] === undefined &&
-  (req.headers["content-length"] ?? "0") === "0";
 const node = createServer((req, res) => {
   if (!mayBeNoted(req)) return app(req, res);
   notedJson(req.url ?? "/", { ifNoneMatch: req.headers["if-none-match"], acceptEncoding: req.headers["accept-encoding"] }).then(

@@ -5,7 +5,7 @@ import { etagListed, PUBLIC_CACHE_CONTROL, publicJson, serializedJson } from "~/
 import { type ContentCoding, chosenEncoding } from "~/utils/content-coding";
 import { env } from "~/utils/env.server";
 import { keptDocument, NONCE_STAND_IN } from "./document-cache.server";
-import { securityHeaders } from "./security-headers.server";
+import { fixedHeaders, securityHeaders } from "./security-headers.server";
 
 /**
  * For a request with no cookie and no credentials at all, a reader page's whole answer, and a
@@ -15,31 +15,38 @@ import { securityHeaders } from "./security-headers.server";
  * is answered from the note before React Router runs (app/cli/start.ts): a page with a fresh
  * nonce, an API answer with the same bytes. Any change to the content moves a stamp, so the next
  * request goes through React Router again. An address nothing is noted for costs no read of the stamps.
- *
- * Only the headers the answer's own code sets are noted; the ones every answer carries (the
- * security headers, compression's) are added on the way out as for any other answer.
  */
-type Noted = {
-  stamps: string;
-  etag: string;
-  /** As set by the app, with NONCE_STAND_IN where a page's nonce went. */
-  headers: [string, string][];
-  body: { document: string } | { bytes: Buffer; encoded?: Partial<Record<ContentCoding, Buffer>> };
-};
+type Noted = { stamps: string; etag: string } & (
+  | {
+      /** A page: the key of its kept markup, and its headers as sent, with NONCE_STAND_IN where the nonce went. */
+      document: string;
+      headers: [string, string][];
+    }
+  | {
+      /** An API answer: its JSON as UTF-8, and each content coding of it once made. */
+      bytes: Buffer;
+      encoded: Partial<Record<ContentCoding, Buffer>>;
+    }
+);
 
 /** Some 4,000 pages' notes (their markup is kept by document-cache.server.ts), or fewer with API bodies. */
 const NOTED_BYTES = 24 * 1024 * 1024;
 const NOTE_BYTES = 512;
 const noted = new BoundedCache<string, Noted>(NOTED_BYTES, (note) =>
-  "bytes" in note.body ? NOTE_BYTES + note.body.bytes.length : NOTE_BYTES,
+  "bytes" in note ? NOTE_BYTES + note.bytes.length : NOTE_BYTES,
 );
 
 const addressOf = (url: URL) => `${url.pathname}${url.search}`;
 
 /** The note for a request target as the server got it; a target that is no URL path has none. */
 function noteFor(target: string): Noted | undefined {
-  if (!URL.canParse(target, "http://torqueleaf.invalid")) return undefined;
-  return noted.get(addressOf(new URL(target, "http://torqueleaf.invalid")));
+  let url: URL;
+  try {
+    url = new URL(target, "http://torqueleaf.invalid");
+  } catch {
+    return undefined;
+  }
+  return noted.get(addressOf(url));
 }
 const stampsKey = (stamps: ContentStamps) => `${stamps.guides}.${stamps.catalogue}.${stamps.reports}`;
 
@@ -59,8 +66,8 @@ export function noteAnonymousPage(
   noted.set(addressOf(new URL(request.url)), {
     stamps: stampsKey(stamps),
     etag: kept.etag,
+    document: kept.key,
     headers: template,
-    body: { document: kept.key },
   });
 }
 
@@ -71,16 +78,7 @@ export function noteAnonymousPage(
 export function anonymousJson(request: Request, stamps: ContentStamps, body: object): Response {
   if (request.method === "GET" && isAnonymous(request.headers)) {
     const { text, etag } = serializedJson(body);
-    noted.set(addressOf(new URL(request.url)), {
-      stamps: stampsKey(stamps),
-      etag,
-      headers: [
-        ["ETag", etag],
-        ["Cache-Control", PUBLIC_CACHE_CONTROL],
-        ["Content-Type", "application/json"],
-      ],
-      body: { bytes: Buffer.from(text) },
-    });
+    noted.set(addressOf(new URL(request.url)), { stamps: stampsKey(stamps), etag, bytes: Buffer.from(text), encoded: {} });
   }
   return publicJson(request, body);
 }
@@ -88,9 +86,10 @@ export function anonymousJson(request: Request, stamps: ContentStamps, body: obj
 export type AnonymousAnswer = { status: 200 | 304; headers: [string, string][]; body: Uint8Array | null };
 
 /**
- * The answer to an anonymous GET of `path` (with its query), if one was noted for it under the stamps
- * as they are now (`readStamps`, asked only then) and its body is still kept, with a nonce of its own
- * (`newNonce`) for a page; else undefined, and React Router answers.
+ * The answer to an anonymous GET of `path` (with its query), if a page was noted for it under the
+ * stamps as they are now (`readStamps`, asked only then) and its markup is still kept, with a nonce
+ * of its own (`newNonce`); else undefined, and React Router answers. Through Express: the markup
+ * differs by its nonce, so it is compressed per answer.
  */
 export async function anonymousAnswer(
   path: string,
@@ -99,25 +98,25 @@ export async function anonymousAnswer(
   newNonce: () => string,
 ): Promise<AnonymousAnswer | undefined> {
   const note = noteFor(path);
-  if (!note || note.stamps !== stampsKey(await readStamps())) return undefined;
-  const nonce = "document" in note.body ? newNonce() : "";
-  const withNonce = (value: string) => (nonce ? value.replaceAll(NONCE_STAND_IN, nonce) : value);
+  if (!note || !("document" in note) || note.stamps !== stampsKey(await readStamps())) return undefined;
+  const nonce = newNonce();
+  const withNonce = ([name, value]: [string, string]): [string, string] => [name, value.replaceAll(NONCE_STAND_IN, nonce)];
   if (etagListed(ifNoneMatch, note.etag)) {
     // As React Router's answer would be: the browser keeps the policy that came with its page.
-    const headers = note.headers.filter(([name]) => !/^content-(security-policy|type)$/i.test(name));
-    return { status: 304, headers: headers.map(([name, value]) => [name, withNonce(value)]), body: null };
+    const headers = note.headers.filter(([name]) => name !== "content-security-policy" && name !== "content-type");
+    return { status: 304, headers: headers.map(withNonce), body: null };
   }
-  const body = "document" in note.body ? keptDocument(note.body.document, nonce) : note.body.bytes;
+  const body = keptDocument(note.document, nonce);
   if (!body) return undefined;
-  return { status: 200, headers: note.headers.map(([name, value]) => [name, withNonce(value)]), body };
+  return { status: 200, headers: note.headers.map(withNonce), body };
 }
 
 /**
  * A JSON answer's bytes are the same for every request, so the production server sends a noted one
  * straight from Node's HTTP server, before Express (app/cli/start.ts): no per-request middleware,
  * and each encoding made once per note instead of once per answer. Its headers are the ones the
- * Express path gives it: the security headers (a fresh nonce in the policy, none on a 304),
- * `Vary: Accept-Encoding`, and the encoding the compression middleware would choose.
+ * Express path gives it: `publicJson`'s, the security headers (a fresh nonce in the policy, none on
+ * a 304), `Vary: Accept-Encoding`, and the encoding the compression middleware would choose.
  */
 export async function notedJsonAnswer(
   path: string,
@@ -126,23 +125,21 @@ export async function notedJsonAnswer(
   newNonce: () => string,
 ): Promise<{ status: 200 | 304; headers: Record<string, string>; body: Buffer | null } | undefined> {
   const note = noteFor(path);
-  if (!note || !("bytes" in note.body) || note.stamps !== stampsKey(await readStamps())) return undefined;
-  const own = Object.fromEntries(note.headers);
-  if (etagListed(request.ifNoneMatch, note.etag)) {
-    const { "Content-Security-Policy": _policy, ...fixed } = securityHeaders(env(), "");
-    return { status: 304, headers: { ...fixed, ETag: own.ETag, "Cache-Control": own["Cache-Control"] }, body: null };
-  }
-  const body = note.body;
-  const encoding = body.bytes.length < COMPRESSION_THRESHOLD ? "identity" : chosenEncoding(request.acceptEncoding);
-  let bytes = body.bytes;
+  if (!note || !("bytes" in note) || note.stamps !== stampsKey(await readStamps())) return undefined;
+  const settings = env();
+  const own = { ETag: note.etag, "Cache-Control": PUBLIC_CACHE_CONTROL };
+  if (etagListed(request.ifNoneMatch, note.etag))
+    return { status: 304, headers: { ...fixedHeaders(settings), ...own }, body: null };
+  const encoding = note.bytes.length < COMPRESSION_THRESHOLD ? "identity" : chosenEncoding(request.acceptEncoding);
+  let bytes = note.bytes;
   if (encoding !== "identity") {
-    body.encoded ??= {};
-    bytes = body.encoded[encoding] ??= ENCODERS[encoding](body.bytes);
+    note.encoded[encoding] ??= ENCODERS[encoding](note.bytes);
+    bytes = note.encoded[encoding];
   }
   return {
     status: 200,
     headers: {
-      ...securityHeaders(env(), newNonce()),
+      ...securityHeaders(settings, newNonce()),
       ...own,
       "Content-Type": "application/json; charset=utf-8",
       Vary: "Accept-Encoding",

@@ -104,8 +104,8 @@ export function securityHeaders(settings: Settings, nonce: string): Record<strin
 
 let fixedFor: { origin: string; headers: Record<string, string> } | undefined;
 
-/** The headers without a nonce, built once per origin. */
-function fixedHeaders(settings: Settings): Record<string, string> {
+/** The headers without a nonce, built once per origin (what a 304 carries). */
+export function fixedHeaders(settings: Settings): Record<string, string> {
   if (fixedFor?.origin === settings.APP_ORIGIN) return fixedFor.headers;
   const headers = {
     "X-Content-Type-Options": "nosniff",
